@@ -1,0 +1,32 @@
+// The species database: every species of thermo/data/*.yaml, checked for consistency.
+#pragma once
+
+#include <filesystem>
+#include <string_view>
+#include <vector>
+
+#include "protonflow/thermo/species.hpp"
+
+namespace protonflow::thermo {
+
+class Database {
+ public:
+  explicit Database(std::vector<Species> species);
+
+  const std::vector<Species>& species() const noexcept { return species_; }
+  // The species of that name, or nullptr.
+  const Species* find(std::string_view name) const noexcept;
+  // Index of the species of that name; throws ThermoError(unknown_species) listing near names.
+  std::size_t index_of(std::string_view name) const;
+
+ private:
+  std::vector<Species> species_;
+};
+
+// Reads every *.yaml file of a directory; throws DataError with file, line and column.
+Database load_database(const std::filesystem::path& directory);
+
+// The directory of the bundled data: $PROTONFLOW_DATA_DIR if set, else the build's data folder.
+std::filesystem::path default_data_directory();
+
+}  // namespace protonflow::thermo

@@ -1,0 +1,58 @@
+// Aqueous speciation on KINSOL: given T, P and component amounts, find every solute's molality.
+#pragma once
+
+#include <memory>
+#include <span>
+#include <vector>
+
+#include "protonflow/thermo/chemical_system.hpp"
+
+namespace protonflow::thermo {
+
+struct Speciation {
+  double temperature = 0.0;         // K
+  double pressure = 0.0;            // Pa
+  double ph = 0.0;                  // −log10 a(H+)
+  double ionic_strength = 0.0;      // mol/kg
+  double water_mass = 0.0;          // kg of solvent water
+  double water_activity = 0.0;
+  std::vector<double> molality;     // per solute, mol/kg
+  std::vector<double> activity;     // per solute
+  std::vector<double> log10_gamma;  // per solute
+  long iterations = 0;              // Newton iterations of the final KINSOL call
+  double residual_norm = 0.0;       // scaled max-norm of the residual at the answer
+  bool warm_started = false;
+};
+
+struct SolverOptions {
+  double tolerance = 1e-13;  // scaled residual (relative mass balance, relative charge balance)
+  long max_iterations = 200;
+};
+
+class EquilibriumSolver {
+ public:
+  explicit EquilibriumSolver(const ChemicalSystem& system, SolverOptions options = {});
+  ~EquilibriumSolver();
+  EquilibriumSolver(EquilibriumSolver&&) noexcept;
+  EquilibriumSolver& operator=(EquilibriumSolver&&) noexcept;
+  EquilibriumSolver(const EquilibriumSolver&) = delete;
+  EquilibriumSolver& operator=(const EquilibriumSolver&) = delete;
+
+  // Solves for temperature (K), pressure (Pa) and amounts (mol) of each component, in the order
+  // of system.components(). Warm-starts from the previous answer when there is one. Writes into
+  // out (sized on first use, reused after). Throws ThermoError(bad_input, out_of_range) or
+  // ConvergenceError with the residuals.
+  void solve(double temperature, double pressure, std::span<const double> amounts, Speciation& out);
+  Speciation solve(double temperature, double pressure, std::span<const double> amounts);
+
+  // Forget the previous answer, so the next solve starts cold.
+  void reset_warm_start() noexcept;
+
+  const ChemicalSystem& system() const noexcept;
+
+ private:
+  struct Impl;
+  std::unique_ptr<Impl> impl_;
+};
+
+}  // namespace protonflow::thermo

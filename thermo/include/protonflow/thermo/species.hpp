@@ -1,0 +1,40 @@
+// One species of the database, as read from thermo/data/*.yaml.
+#pragma once
+
+#include <optional>
+#include <string>
+#include <utility>
+#include <vector>
+
+#include "protonflow/thermo/formula.hpp"
+#include "protonflow/thermo/temperature_function.hpp"
+
+namespace protonflow::thermo {
+
+enum class Phase { aqueous, solvent };
+
+struct SourcedValue {
+  double value;        // SI: J/mol, J/(mol K)
+  std::string source;  // key into docs/references.md
+};
+
+struct Species {
+  std::string name;  // unique, e.g. "HSO4-", "CO2(aq)"
+  Formula formula;
+  Phase phase = Phase::aqueous;
+  bool is_basis = false;
+  std::optional<double> ion_size_angstrom;  // charged species only
+  std::optional<SourcedValue> formation_enthalpy;
+  std::optional<SourcedValue> entropy;
+  std::optional<SourcedValue> heat_capacity;
+  // Formation from basis species (non-basis species only): basis name and coefficient.
+  std::vector<std::pair<std::string, double>> reaction;
+  TemperatureFunction log_k;
+  std::string log_k_source;
+  double minimum_temperature = 273.15;  // K
+  double maximum_temperature = 373.15;  // K
+  std::string file;  // data file and line it came from, for messages
+  int line = 0;
+};
+
+}  // namespace protonflow::thermo

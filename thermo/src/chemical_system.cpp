@@ -1,0 +1,124 @@
+#include "protonflow/thermo/chemical_system.hpp"
+
+#include <algorithm>
+#include <fmt/format.h>
+#include <set>
+
+#include "protonflow/thermo/errors.hpp"
+#include "protonflow/thermo/tableau.hpp"
+
+namespace protonflow::thermo {
+
+ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string> components, SystemOptions options)
+    : components_(std::move(components)), options_(std::move(options)) {
+  if (std::find(components_.begin(), components_.end(), "H2O") == components_.end())
+    throw ThermoError(ErrorKind::bad_input, "the component slate must include H2O, the solvent");
+  const std::size_t water = database.index_of("H2O");
+  const std::size_t proton = database.index_of("H+");
+
+  // Basis solutes: H+ first, then every basis species a component needs, in database order.
+  std::vector<BasisCombination> combinations;
+  std::set<std::size_t> used{proton};
+  for (const std::string& component : components_) {
+    if (std::count(components_.begin(), components_.end(), component) > 1)
+      throw ThermoError(ErrorKind::bad_input, fmt::format("component '{}' is listed twice", component));
+    combinations.push_back(decompose(database, component));
+    for (const auto& [index, k] : combinations.back())
+      if (index != water) used.insert(index);
+  }
+  std::vector<std::size_t> basis{proton};
+  for (std::size_t index : used)
+    if (index != proton) basis.push_back(index);
+  basis_count_ = basis.size();
+  const auto basis_position = [&](const std::string& name) -> std::ptrdiff_t {
+    for (std::size_t b = 0; b < basis.size(); ++b)
+      if (database.species()[basis[b]].name == name) return static_cast<std::ptrdiff_t>(b);
+    return -1;
+  };
+
+  const auto add_solute = [&](const Species& s) {
+    Solute solute;
+    solute.name = s.name;
+    solute.charge = s.formula.charge;
+    solute.ion_size_angstrom = s.ion_size_angstrom.value_or(0.0);
+    solute.is_basis = s.is_basis;
+    solute.stoichiometry.assign(basis_count_, 0.0);
+    solute.minimum_temperature = s.minimum_temperature;
+    solute.maximum_temperature = s.maximum_temperature;
+    if (s.is_basis) {
+      solute.stoichiometry[static_cast<std::size_t>(basis_position(s.name))] = 1.0;
+    } else {
+      for (const auto& [name, k] : s.reaction) {
+        if (name == "H2O") {
+          solute.water_coefficient += k;
+        } else {
+          solute.stoichiometry[static_cast<std::size_t>(basis_position(name))] += k;
+        }
+      }
+      solute.log_k = s.log_k;
+    }
+    if (solute.charge != 0 && solute.ion_size_angstrom <= 0.0)
+      throw DataError(s.file, s.line, 1, fmt::format("charged species '{}' has no ion_size_angstrom", s.name));
+    solutes_.push_back(std::move(solute));
+  };
+  for (std::size_t index : basis) add_solute(database.species()[index]);
+
+  // Secondary solutes: every aqueous species whose reaction needs only the basis present.
+  const auto reachable = [&](const Species& s) {
+    return std::all_of(s.reaction.begin(), s.reaction.end(),
+                       [&](const auto& term) { return term.first == "H2O" || basis_position(term.first) >= 0; });
+  };
+  if (options_.secondary_species.empty()) {
+    for (const Species& s : database.species())
+      if (!s.is_basis && s.phase == Phase::aqueous && reachable(s)) add_solute(s);
+  } else {
+    // OH- belongs to every aqueous system: water's own ionization is never optional.
+    std::vector<std::string> wanted = options_.secondary_species;
+    if (std::find(wanted.begin(), wanted.end(), "OH-") == wanted.end()) wanted.insert(wanted.begin(), "OH-");
+    for (const std::string& name : wanted) {
+      const Species& s = database.species()[database.index_of(name)];
+      if (s.is_basis) continue;
+      if (!reachable(s))
+        throw ThermoError(ErrorKind::bad_input,
+                          fmt::format("species '{}' needs a basis species that no component brings", name));
+      add_solute(s);
+    }
+  }
+
+  for (std::size_t c = 0; c < components_.size(); ++c) {
+    std::vector<double> per_basis(basis_count_, 0.0);
+    double water_amount = 0.0;
+    for (const auto& [index, k] : combinations[c]) {
+      if (index == water) {
+        water_amount += k;
+      } else {
+        per_basis[static_cast<std::size_t>(basis_position(database.species()[index].name))] += k;
+      }
+    }
+    composition_.push_back(std::move(per_basis));
+    water_in_.push_back(water_amount);
+    const Species* named = database.find(components_[c]);
+    molar_mass_.push_back(molar_mass(named ? named->formula : parse_formula(components_[c])));
+  }
+
+  minimum_temperature_ = 0.0;
+  maximum_temperature_ = 1e9;
+  for (const Solute& s : solutes_) {
+    minimum_temperature_ = std::max(minimum_temperature_, s.minimum_temperature);
+    maximum_temperature_ = std::min(maximum_temperature_, s.maximum_temperature);
+  }
+}
+
+std::size_t ChemicalSystem::index_of_solute(std::string_view name) const {
+  for (std::size_t i = 0; i < solutes_.size(); ++i)
+    if (solutes_[i].name == name) return i;
+  throw ThermoError(ErrorKind::unknown_species, fmt::format("'{}' is not a solute of this system", name));
+}
+
+std::size_t ChemicalSystem::index_of_component(std::string_view name) const {
+  for (std::size_t i = 0; i < components_.size(); ++i)
+    if (components_[i] == name) return i;
+  throw ThermoError(ErrorKind::unknown_species, fmt::format("'{}' is not a component of this system", name));
+}
+
+}  // namespace protonflow::thermo

@@ -1,0 +1,157 @@
+#include "protonflow/thermo/formula.hpp"
+
+#include <cctype>
+#include <cstdlib>
+#include <fmt/format.h>
+
+#include "protonflow/thermo/elements.hpp"
+#include "protonflow/thermo/errors.hpp"
+
+namespace protonflow::thermo {
+
+namespace {
+
+// Recursive-descent reader over one formula text; position() is 0-based, messages say 1-based.
+class FormulaReader {
+ public:
+  explicit FormulaReader(std::string_view text) : text_(text) {}
+
+  Formula read() {
+    if (text_.empty()) fail("the formula is empty");
+    Formula formula;
+    read_part(formula.elements);
+    while (accept_hydrate_separator()) read_part(formula.elements);
+    formula.charge = read_charge();
+    if (!at_end()) fail(fmt::format("unexpected '{}'", text_[position_]));
+    return formula;
+  }
+
+ private:
+  // part := count? group+ ; a leading count multiplies the whole part (the 2 of ":2H2O").
+  void read_part(std::map<std::string, double>& elements) {
+    const double multiplier = at_digit() ? read_count() : 1.0;
+    std::map<std::string, double> part;
+    if (!at_group_start()) fail("expected an element symbol or '('");
+    while (at_group_start()) read_group(part);
+    for (const auto& [symbol, count] : part) elements[symbol] += multiplier * count;
+  }
+
+  void read_group(std::map<std::string, double>& elements) {
+    std::map<std::string, double> group;
+    if (peek() == '(') {
+      ++position_;
+      if (!at_group_start()) fail("expected an element symbol after '('");
+      while (at_group_start()) read_group(group);
+      if (peek() != ')') fail("missing ')'");
+      ++position_;
+    } else {
+      group[read_element()] = 1.0;
+    }
+    const double count = at_digit() ? read_count() : 1.0;
+    for (const auto& [symbol, n] : group) elements[symbol] += count * n;
+  }
+
+  std::string read_element() {
+    const std::size_t start = position_;
+    std::string symbol(1, text_[position_++]);
+    while (!at_end() && std::islower(static_cast<unsigned char>(text_[position_]))) symbol += text_[position_++];
+    if (!standard_atomic_weight(symbol)) {
+      position_ = start;
+      fail(fmt::format("unknown element '{}'", symbol));
+    }
+    return symbol;
+  }
+
+  double read_count() {
+    const std::size_t start = position_;
+    while (at_digit() || peek() == '.') ++position_;
+    const std::string digits(text_.substr(start, position_ - start));
+    std::size_t used = 0;
+    double value = 0.0;
+    try {
+      value = std::stod(digits, &used);
+    } catch (const std::exception&) {
+      used = 0;
+    }
+    if (used != digits.size() || value <= 0.0) {
+      position_ = start;
+      fail(fmt::format("'{}' is not a count", digits));
+    }
+    return value;
+  }
+
+  // charge := ('+' | '-') digits? at the very end: "Na+", "SO4-2".
+  int read_charge() {
+    if (peek() != '+' && peek() != '-') return 0;
+    const int sign = text_[position_++] == '+' ? 1 : -1;
+    if (at_end()) return sign;
+    const std::size_t start = position_;
+    int magnitude = 0;
+    while (at_digit()) magnitude = 10 * magnitude + (text_[position_++] - '0');
+    if (position_ == start || magnitude == 0) {
+      position_ = start;
+      fail("a charge is written as +, -, +2, -3 at the end of the formula");
+    }
+    return sign * magnitude;
+  }
+
+  bool accept_hydrate_separator() {
+    if (peek() == ':') {
+      ++position_;
+      return true;
+    }
+    if (text_.substr(position_).starts_with("\u00b7")) {  // middle dot, as in CaSO4·2H2O
+      position_ += 2;
+      return true;
+    }
+    return false;
+  }
+
+  char peek() const { return at_end() ? '\0' : text_[position_]; }
+  bool at_end() const { return position_ >= text_.size(); }
+  bool at_digit() const { return std::isdigit(static_cast<unsigned char>(peek())) != 0; }
+  bool at_group_start() const { return peek() == '(' || std::isupper(static_cast<unsigned char>(peek())) != 0; }
+
+  [[noreturn]] void fail(const std::string& what) const {
+    throw ThermoError(ErrorKind::bad_formula,
+                      fmt::format("cannot read formula '{}': {} at character {}", text_, what, position_ + 1));
+  }
+
+  std::string_view text_;
+  std::size_t position_ = 0;
+};
+
+}  // namespace
+
+Formula parse_formula(std::string_view text) { return FormulaReader(text).read(); }
+
+double molar_mass(const Formula& formula) {
+  double grams = 0.0;
+  for (const auto& [symbol, count] : formula.elements) grams += count * standard_atomic_weight(symbol).value();
+  return grams * 1e-3;  // g/mol -> kg/mol
+}
+
+std::string to_string(const Formula& formula) {
+  // Hill order: C, then H, then the rest alphabetically; with no carbon, all alphabetically.
+  std::string text;
+  const auto append = [&](const std::string& symbol, double count) {
+    text += symbol;
+    if (count != 1.0) text += fmt::format("{:g}", count);
+  };
+  const bool has_carbon = formula.elements.contains("C");
+  if (has_carbon) {
+    append("C", formula.elements.at("C"));
+    if (formula.elements.contains("H")) append("H", formula.elements.at("H"));
+  }
+  for (const auto& [symbol, count] : formula.elements) {
+    if (has_carbon && (symbol == "C" || symbol == "H")) continue;
+    append(symbol, count);
+  }
+  if (formula.charge != 0) {
+    text += formula.charge > 0 ? '+' : '-';
+    if (formula.charge != 1 && formula.charge != -1) text += fmt::format("{}", std::abs(formula.charge));
+  }
+  return text;
+}
+
+}  // namespace protonflow::thermo
