@@ -9,6 +9,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdlib>
 #include <fmt/format.h>
 
 #include "initial_guess.hpp"
@@ -42,6 +43,10 @@ struct EquilibriumSolver::Impl {
     static_cast<Impl*>(user_data)->residual(N_VGetArrayPointer(u), N_VGetArrayPointer(f));
     return 0;
   }
+  // KINSOL's messages go into the error we throw, never to stderr: a library does not print.
+  static void error_callback(int, const char*, const char* function, char* message, void* user_data) {
+    static_cast<Impl*>(user_data)->kinsol_message = fmt::format("{}: {}", function, message);
+  }
   static int jacobian_callback(N_Vector u, N_Vector, SUNMatrix jacobian_matrix, void* user_data, N_Vector, N_Vector) {
     static_cast<Impl*>(user_data)->jacobian(N_VGetArrayPointer(u), jacobian_matrix);
     return 0;
@@ -73,6 +78,7 @@ struct EquilibriumSolver::Impl {
   std::vector<double> guess_x, guess_totals, previous_u;
   std::vector<char> previous_active;
   bool has_previous = false;
+  std::string kinsol_message;
 
   SUNContext context = nullptr;
   void* kinsol = nullptr;
@@ -85,6 +91,14 @@ namespace {
 
 void check_flag(int flag, const char* call) {
   if (flag < 0) throw ThermoError(ErrorKind::not_converged, fmt::format("SUNDIALS call {} failed with flag {}", call, flag));
+}
+
+// KINGetReturnFlagName hands back a malloc'd string; copy and free it.
+std::string flag_name(int flag) {
+  char* name = KINGetReturnFlagName(flag);
+  std::string text = name ? name : "unknown flag";
+  std::free(name);
+  return text;
 }
 
 template <typename T>
@@ -136,6 +150,7 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
   kinsol = check_created(KINCreate(context), "KINCreate");
   check_flag(KINInit(kinsol, residual_callback, u), "KINInit");
   check_flag(KINSetUserData(kinsol, this), "KINSetUserData");
+  check_flag(KINSetErrHandlerFn(kinsol, error_callback, this), "KINSetErrHandlerFn");
   check_flag(KINSetFuncNormTol(kinsol, options.tolerance), "KINSetFuncNormTol");
   check_flag(KINSetScaledStepTol(kinsol, 1e-15), "KINSetScaledStepTol");
   check_flag(KINSetNumMaxIters(kinsol, options.max_iterations), "KINSetNumMaxIters");
@@ -409,8 +424,8 @@ void EquilibriumSolver::Impl::solve(double t, double p, std::span<const double> 
     long iterations = 0;
     KINGetNumNonlinSolvIters(kinsol, &iterations);
     throw ConvergenceError(
-        fmt::format("speciation did not converge at {:.2f} K (KINSOL flag {}: {}); scaled residual max-norm {:.3g}",
-                    t, flag, KINGetReturnFlagName(flag), scaled_residual_norm()),
+        fmt::format("speciation did not converge at {:.2f} K (KINSOL {}: {}); scaled residual max-norm {:.3g}",
+                    t, flag_name(flag), kinsol_message, scaled_residual_norm()),
         residual_report(), iterations);
   }
   std::copy(x, x + size, previous_u.begin());

@@ -27,11 +27,14 @@ double count_of(const Formula& formula, const std::string& element) {
 }
 
 // Depth-first search for every exact cover of the heavy elements by basis species with positive
-// integer coefficients; keeps the covers with the fewest distinct species.
+// integer coefficients, each heavy element from one basis species only (two sulfur species in one
+// cover would be a disproportionation, e.g. thiosulfate as sulfate + sulfide); keeps the covers
+// with the fewest distinct species.
 class CoverSearch {
  public:
-  CoverSearch(const Database& database, const Formula& target) : database_(database), target_(target) {
-    const auto heavy = heavy_elements(target);
+  CoverSearch(const Database& database, const Formula& target)
+      : database_(database), target_(target), target_heavy_(heavy_elements(target)) {
+    const auto& heavy = target_heavy_;
     for (std::size_t i = 0; i < database.species().size(); ++i) {
       const Species& s = database.species()[i];
       if (!s.is_basis || s.phase != Phase::aqueous || s.name == "H+") continue;
@@ -45,7 +48,7 @@ class CoverSearch {
 
   std::vector<BasisCombination> best_covers() {
     BasisCombination chosen;
-    search(0, heavy_elements(target_), chosen);
+    search(0, target_heavy_, chosen);
     return best_;
   }
 
@@ -57,6 +60,10 @@ class CoverSearch {
     }
     for (std::size_t c = next; c < candidates_.size(); ++c) {
       const auto own = heavy_elements(database_.species()[candidates_[c]].formula);
+      const bool element_already_supplied = std::any_of(own.begin(), own.end(), [&](const auto& e) {
+        return std::abs(remaining[e.first] - target_heavy_.at(e.first)) > 1e-9;
+      });
+      if (element_already_supplied) continue;
       // the largest coefficient this species can take without overshooting any element
       double limit = 1e300;
       for (const auto& [element, count] : own) limit = std::min(limit, std::floor(remaining[element] / count + 1e-9));
@@ -95,6 +102,7 @@ class CoverSearch {
 
   const Database& database_;
   const Formula& target_;
+  const std::map<std::string, double> target_heavy_;
   std::vector<std::size_t> candidates_;
   std::vector<BasisCombination> best_;
   std::size_t best_size_ = 0;

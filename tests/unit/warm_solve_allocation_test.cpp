@@ -1,0 +1,51 @@
+// A warm solve must allocate nothing: every malloc of the process is counted while it runs.
+#include <cstdio>
+#include <cstdlib>
+#include <vector>
+
+#include "protonflow/thermo/chemical_system.hpp"
+#include "protonflow/thermo/constants.hpp"
+#include "protonflow/thermo/database.hpp"
+#include "protonflow/thermo/equilibrium_solver.hpp"
+
+extern "C" void* __libc_malloc(std::size_t size);  // glibc's own allocator entry points
+extern "C" void* __libc_calloc(std::size_t count, std::size_t size);
+extern "C" void* __libc_realloc(void* pointer, std::size_t size);
+
+namespace {
+bool counting = false;
+long allocations = 0;
+}  // namespace
+
+extern "C" void* malloc(std::size_t size) {
+  if (counting) ++allocations;
+  return __libc_malloc(size);
+}
+extern "C" void* calloc(std::size_t count, std::size_t size) {
+  if (counting) ++allocations;
+  return __libc_calloc(count, size);
+}
+extern "C" void* realloc(void* pointer, std::size_t size) {
+  if (counting) ++allocations;
+  return __libc_realloc(pointer, size);
+}
+
+int main() {
+  using namespace protonflow::thermo;
+  const Database database = load_database(default_data_directory());
+  const ChemicalSystem system(database, {"H2O", "NaCl", "H2SO4", "Na2CO3", "NH3", "CaCl2"});
+  EquilibriumSolver solver(system);
+  std::vector<double> amounts{1.0 / constants::water_molar_mass, 0.05, 0.02, 0.01, 0.03, 0.005};
+  Speciation out;
+  solver.solve(298.15, 101325.0, amounts, out);  // cold: sizes every buffer
+  amounts[2] *= 1.01;                            // a nearby state, as in a flowsheet iteration
+  counting = true;
+  solver.solve(298.15, 101325.0, amounts, out);
+  counting = false;
+  if (!out.warm_started) {
+    std::puts("FAILED: the second solve did not warm-start");
+    return 1;
+  }
+  std::printf("%ld allocations in a warm solve (%ld Newton iterations)\n", allocations, out.iterations);
+  return allocations == 0 ? 0 : 1;
+}
