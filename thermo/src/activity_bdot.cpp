@@ -20,6 +20,8 @@ class BDotModel final : public ActivityModel {
   explicit BDotModel(SoluteProperties solutes) : solutes_(std::move(solutes)) {}
 
   std::string_view name() const noexcept override { return "b-dot"; }
+  // About 1 mol/kg in solutions other than NaCl (common practice; Helgeson 1969 fitted NaCl further).
+  double maximum_ionic_strength() const noexcept override { return 1.0; }
 
   void evaluate(double temperature, double pressure, std::span<const double> m, ActivityEvaluation& out) const override {
     const std::size_t n = m.size();

@@ -15,6 +15,8 @@ class DaviesModel final : public ActivityModel {
   explicit DaviesModel(SoluteProperties solutes) : solutes_(std::move(solutes)) {}
 
   std::string_view name() const noexcept override { return "davies"; }
+  // Davies (1962) proposed the form for I up to about 0.5 mol/kg (common practice, e.g. Stumm & Morgan 1996).
+  double maximum_ionic_strength() const noexcept override { return 0.5; }
 
   void evaluate(double temperature, double pressure, std::span<const double> m, ActivityEvaluation& out) const override {
     const std::size_t n = m.size();

@@ -13,6 +13,8 @@ class IdealModel final : public ActivityModel {
  public:
   explicit IdealModel(SoluteProperties solutes) : solutes_(std::move(solutes)) {}
   std::string_view name() const noexcept override { return "ideal"; }
+  // γ = 1 is within 10 % only below about 0.001 mol/kg for 1:1 salts (Debye–Hückel limiting law; common practice).
+  double maximum_ionic_strength() const noexcept override { return 1e-3; }
   void evaluate(double, double, std::span<const double> m, ActivityEvaluation& out) const override {
     double ionic_strength = 0.0;
     double total = 0.0;

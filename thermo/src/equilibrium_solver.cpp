@@ -388,6 +388,9 @@ void EquilibriumSolver::Impl::fill(Speciation& out, bool warm) {
   out.iterations = iterations;
   out.residual_norm = scaled_residual_norm();
   out.warm_started = warm;
+  out.activity_model_limit = activity->maximum_ionic_strength();
+  out.activity_model_name = activity->name().data();
+  out.warnings = out.ionic_strength > out.activity_model_limit ? ionic_strength_beyond_model : 0u;
 }
 
 void EquilibriumSolver::Impl::solve(double t, double p, std::span<const double> amounts, Speciation& out) {
@@ -432,6 +435,15 @@ void EquilibriumSolver::Impl::solve(double t, double p, std::span<const double> 
   previous_active = active;
   has_previous = true;
   fill(out, used_warm);
+}
+
+std::vector<std::string> describe_warnings(const Speciation& s) {
+  std::vector<std::string> text;
+  if (s.warnings & ionic_strength_beyond_model)
+    text.push_back(fmt::format("ionic strength {:.3g} mol/kg is beyond the {} activity model's range (about {:g} mol/kg): "
+                               "activities, and pH with them, are extrapolated",
+                               s.ionic_strength, s.activity_model_name, s.activity_model_limit));
+  return text;
 }
 
 EquilibriumSolver::EquilibriumSolver(const ChemicalSystem& system, SolverOptions options)

@@ -29,6 +29,8 @@ class ActivityModel {
  public:
   virtual ~ActivityModel() = default;
   virtual std::string_view name() const noexcept = 0;
+  // Ionic strength (mol/kg) above which the model's published accuracy no longer holds.
+  virtual double maximum_ionic_strength() const noexcept = 0;
   // Fills every field of out for molalities m (mol/kg) at temperature (K) and pressure (Pa).
   virtual void evaluate(double temperature, double pressure, std::span<const double> molality,
                         ActivityEvaluation& out) const = 0;

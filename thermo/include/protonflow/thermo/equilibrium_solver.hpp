@@ -3,11 +3,18 @@
 
 #include <memory>
 #include <span>
+#include <string>
 #include <vector>
 
 #include "protonflow/thermo/chemical_system.hpp"
 
 namespace protonflow::thermo {
+
+// Conditions a user must hear about: the answer is a converged solution of the model, but the
+// model itself is stretched. Bit flags, so a warm solve allocates nothing.
+enum SpeciationWarning : unsigned {
+  ionic_strength_beyond_model = 1u << 0,
+};
 
 struct Speciation {
   double temperature = 0.0;         // K
@@ -22,7 +29,13 @@ struct Speciation {
   long iterations = 0;              // Newton iterations of the final KINSOL call
   double residual_norm = 0.0;       // scaled max-norm of the residual at the answer
   bool warm_started = false;
+  unsigned warnings = 0;                 // SpeciationWarning flags
+  double activity_model_limit = 0.0;     // the model's maximum ionic strength, mol/kg
+  const char* activity_model_name = "";  // static string owned by the model
 };
+
+// One sentence per warning flag set in a speciation, for reports.
+std::vector<std::string> describe_warnings(const Speciation& speciation);
 
 struct SolverOptions {
   double tolerance = 1e-13;  // scaled residual (relative mass balance, relative charge balance)

@@ -1,0 +1,165 @@
+#include "speciate_command.hpp"
+
+#include <ostream>
+
+#include <fmt/format.h>
+
+#include "component_amounts.hpp"
+#include "input_error.hpp"
+#include "protonflow/thermo/chemical_system.hpp"
+#include "protonflow/thermo/database.hpp"
+#include "protonflow/thermo/equilibrium_solver.hpp"
+#include "protonflow/thermo/errors.hpp"
+#include "protonflow/thermo/tableau.hpp"
+#include "quantity.hpp"
+#include "solution_file.hpp"
+#include "speciation_report.hpp"
+
+namespace protonflow::host {
+namespace {
+
+constexpr double celsius_offset = 273.15;  // K at 0 °C, by definition of the Celsius scale (SI Brochure)
+
+thermo::Database load_data(const std::filesystem::path& directory) {
+  if (!std::filesystem::is_directory(directory)) {
+    throw InputError(SourcePosition{directory.string(), 0, 0}, "the species data directory does not exist");
+  }
+  try {
+    return thermo::load_database(directory);
+  } catch (const thermo::DataError& error) {
+    throw InputError(SourcePosition{error.file(), error.line(), error.column()}, error.what());
+  } catch (const thermo::ThermoError& error) {
+    throw InputError(SourcePosition{directory.string(), 0, 0}, error.what());
+  }
+}
+
+// Each component is mapped onto the basis alone first, so an unknown formula is reported at its
+// own line rather than at the list.
+void check_components_known(const thermo::Database& database, const SolutionInput& input) {
+  for (const ComponentEntry& entry : input.components) {
+    if (entry.formula == water_formula) {
+      continue;
+    }
+    try {
+      static_cast<void>(thermo::decompose(database, entry.formula));
+    } catch (const thermo::ThermoError& error) {
+      throw InputError(entry.key_at, fmt::format("component {}: {}", entry.formula, error.what()));
+    }
+  }
+}
+
+void check_temperature_range(const thermo::ChemicalSystem& system, const SolutionInput& input) {
+  const double low = system.minimum_temperature();
+  const double high = system.maximum_temperature();
+  if (input.temperature < low || input.temperature > high) {
+    throw InputError(input.temperature_at,
+                     fmt::format("temperature {:.2f} K ({:.2f} °C) is out of range: the species data of this "
+                                 "solution cover {:.2f} to {:.2f} K ({:.2f} to {:.2f} °C)",
+                                 input.temperature, input.temperature - celsius_offset, low, high,
+                                 low - celsius_offset, high - celsius_offset));
+  }
+}
+
+// The slate's amounts, reordered to the system's component order.
+std::vector<double> amounts_in_system_order(const thermo::ChemicalSystem& system, const ComponentSlate& slate) {
+  std::vector<double> amounts(system.components().size(), 0.0);
+  for (std::size_t k = 0; k < slate.names.size(); ++k) {
+    amounts[system.index_of_component(slate.names[k])] += slate.amounts[k];
+  }
+  return amounts;
+}
+
+// Where a ThermoError from building or solving the system belongs in the input.
+SourcePosition position_for(const thermo::ThermoError& error, const SolutionInput& input) {
+  switch (error.kind()) {
+    case thermo::ErrorKind::out_of_range: {
+      const std::string_view message = error.what();
+      return message.find("pressure") != std::string_view::npos ? input.pressure_at : input.temperature_at;
+    }
+    case thermo::ErrorKind::unknown_species:
+    case thermo::ErrorKind::bad_formula:
+    case thermo::ErrorKind::bad_input: return input.components_at;
+    default: return input.solution_at;
+  }
+}
+
+SpeciationReport make_report(const SolutionInput& input, const thermo::ChemicalSystem& system,
+                             std::vector<double> amounts, thermo::Speciation speciation) {
+  SpeciationReport report;
+  report.source = input.file;
+  report.name = input.name;
+  report.activity_model = std::string(to_string(input.activity_model));
+  report.amounts_as = std::string(to_string(input.basis));
+  report.components = system.components();
+  report.closure = measure_closure(system, amounts, speciation);
+  report.component_amounts = std::move(amounts);
+  for (const thermo::Solute& solute : system.solutes()) {
+    report.solutes.push_back(SoluteLabel{solute.name, solute.charge});
+  }
+  report.warnings = thermo::describe_warnings(speciation);
+  report.speciation = std::move(speciation);
+  return report;
+}
+
+void print_convergence_failure(const thermo::ConvergenceError& error, const SolutionInput& input, std::ostream& err) {
+  err << format_diagnostic(input.solution_at,
+                           fmt::format("the equilibrium solver stopped without an answer: {}", error.what()))
+      << "\n";
+  err << fmt::format("scaled residual of each equation after {} iterations:\n", error.iterations());
+  for (const thermo::EquationResidual& residual : error.residuals()) {
+    err << fmt::format("  {:<32} {:.3e}\n", residual.equation, residual.scaled_residual);
+  }
+}
+
+int speciate(const SpeciateOptions& options, std::ostream& out, std::ostream& err) {
+  const UnitConverter units;
+  const SolutionInput input = read_solution_file(options.file, units);
+  const thermo::Database database = load_data(options.data_directory);
+  check_components_known(database, input);
+  const ComponentSlate slate = to_component_slate(input);
+  try {
+    thermo::SystemOptions system_options;
+    system_options.activity = input.activity_model;
+    const thermo::ChemicalSystem system(database, slate.names, system_options);
+    check_temperature_range(system, input);
+    std::vector<double> amounts = amounts_in_system_order(system, slate);
+    thermo::SolverOptions solver_options;
+    solver_options.max_iterations = options.max_iterations;
+    thermo::EquilibriumSolver solver(system, solver_options);
+    thermo::Speciation speciation = solver.solve(input.temperature, input.pressure, amounts);
+    const SpeciationReport report = make_report(input, system, std::move(amounts), std::move(speciation));
+    out << (options.table ? to_table(report) : to_yaml(report));
+    // Warnings also go to stderr, so a user who redirects the results still sees them.
+    for (const std::string& warning : report.warnings) err << format_warning(input.solution_at, warning) << "\n";
+    return exit_ok;
+  } catch (const thermo::ConvergenceError& error) {
+    print_convergence_failure(error, input, err);
+    return exit_not_converged;
+  } catch (const thermo::ThermoError& error) {
+    throw InputError(position_for(error, input), error.what());
+  }
+}
+
+}  // namespace
+
+int run_speciate(const SpeciateOptions& options, std::ostream& out, std::ostream& err) noexcept {
+  try {
+    try {
+      return speciate(options, out, err);
+    } catch (const InputError& error) {
+      err << format_diagnostic(error.where(), error.what()) << "\n";
+    } catch (const QuantityError& error) {
+      err << format_diagnostic(SourcePosition{options.file, 0, 0}, error.what()) << "\n";
+    } catch (const std::exception& error) {
+      err << format_diagnostic(SourcePosition{options.file, 0, 0}, fmt::format("unexpected error: {}", error.what()))
+          << "\n";
+    } catch (...) {
+      err << format_diagnostic(SourcePosition{options.file, 0, 0}, "unexpected error of unknown type") << "\n";
+    }
+  } catch (...) {
+    // Writing the message itself failed (stderr closed); the exit code still says what happened.
+  }
+  return exit_bad_input;
+}
+
+}  // namespace protonflow::host

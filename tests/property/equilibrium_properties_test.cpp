@@ -1,0 +1,196 @@
+// Properties of every solve over random compositions of all covered acid-base families, 0–100 °C:
+// balances close, pH rises with base, the answer does not depend on the order of the inputs.
+#include <rapidcheck/catch.h>
+
+#include <algorithm>
+#include <cmath>
+#include <map>
+#include <ostream>
+
+#include "protonflow/thermo/chemical_system.hpp"
+#include "protonflow/thermo/constants.hpp"
+#include "protonflow/thermo/database.hpp"
+#include "protonflow/thermo/equilibrium_solver.hpp"
+#include "protonflow/thermo/errors.hpp"
+
+using namespace protonflow::thermo;
+
+namespace {
+
+const Database& database() {
+  static const Database db = load_database(default_data_directory());
+  return db;
+}
+
+// One component or more from every family the data covers: strong and weak acids, bases, salts.
+const std::vector<std::string> component_pool{
+    "HCl",   "HNO3",   "HBr",     "HI",      "HClO4",  "H2SO4",   "Na2SO4", "H3PO4",  "Na3PO4", "CO2",
+    "NaHCO3", "Na2CO3", "SO2",    "Na2SO3",  "HF",     "NaF",     "H2S",    "NaHS",   "CH3COOH", "HCOOH",
+    "C6H8O7", "H2C2O4", "H3BO3",  "NH3",     "NH4Cl",  "NaOH",    "KOH",    "KCl",    "CaCl2",   "MgCl2",
+    "MgSO4",  "K2SO4",  "Ca(OH)2", "Mg(OH)2", "KHC8H4O4", "NaNO3", "CaCO3"};
+
+struct Case {
+  double temperature_fraction;  // 0…1 across the system's own data range (0–100 °C for most systems)
+  ActivityModelKind model;
+  std::vector<std::pair<std::string, double>> recipe;  // component, mol per kg of water
+};
+
+std::ostream& operator<<(std::ostream& os, const Case& c) {
+  os << "T at " << c.temperature_fraction << " of the range, model " << static_cast<int>(c.model) << ":";
+  for (const auto& [component, m] : c.recipe) os << " " << component << "=" << m;
+  return os;
+}
+
+rc::Gen<double> log_uniform_molality() {
+  // 1e-6 … 3 mol/kg, uniform in log10
+  return rc::gen::map(rc::gen::inRange(0, 1000001), [](int k) { return std::pow(10.0, -6.0 + 6.4771212547 * k / 1e6); });
+}
+
+// rapidcheck scales ranges with its size parameter; at the full size (100) the draws are uniform,
+// so concentrated cases are as likely as dilute ones from the first test on.
+rc::Gen<Case> random_case() {
+  return rc::gen::resize(100, rc::gen::apply(
+      [](int t, int model, std::vector<int> picks, std::vector<double> molalities) {
+        Case c{t / 10000.0, static_cast<ActivityModelKind>(model), {}};
+        for (std::size_t i = 0; i < picks.size(); ++i) {
+          const std::string& name = component_pool[static_cast<std::size_t>(picks[i])];
+          const bool seen = std::any_of(c.recipe.begin(), c.recipe.end(), [&](const auto& r) { return r.first == name; });
+          if (!seen) c.recipe.emplace_back(name, molalities[i]);
+        }
+        return c;
+      },
+      rc::gen::inRange(0, 10001), rc::gen::inRange(0, 3),
+      rc::gen::container<std::vector<int>>(4, rc::gen::inRange(0, static_cast<int>(component_pool.size()))),
+      rc::gen::container<std::vector<double>>(4, log_uniform_molality())));
+}
+
+// Some systems' data stop short of 100 °C (calcium carbonate ion pairs at 90 °C): cases sweep each
+// system's own range, and the range check itself is asserted below.
+double temperature_of(const Case& c, const ChemicalSystem& system) {
+  const double low = system.minimum_temperature(), high = system.maximum_temperature();
+  return low + c.temperature_fraction * (high - low);
+}
+
+struct Solved {
+  ChemicalSystem system;
+  std::vector<double> amounts;
+  Speciation speciation;
+};
+
+Solved solve_case(const Case& c) {
+  std::vector<std::string> components{"H2O"};
+  std::vector<double> amounts{1.0 / constants::water_molar_mass};
+  for (const auto& [name, m] : c.recipe) {
+    components.push_back(name);
+    amounts.push_back(m);
+  }
+  SystemOptions options;
+  options.activity = c.model;
+  ChemicalSystem system(database(), components, options);
+  EquilibriumSolver solver(system);
+  Speciation out = solver.solve(temperature_of(c, system), constants::standard_atmosphere, amounts);
+  return {std::move(system), std::move(amounts), std::move(out)};
+}
+
+// Recomputes every balance from the answer alone: totals from the inputs, amounts from molalities.
+void assert_balances_close(const Solved& s) {
+  const auto& solutes = s.system.solutes();
+  const std::size_t nb = s.system.basis_count();
+  std::vector<double> input(nb, 0.0);
+  double water_input = 0.0;
+  for (std::size_t c = 0; c < s.amounts.size(); ++c) {
+    for (std::size_t b = 0; b < nb; ++b) input[b] += s.system.composition(c)[b] * s.amounts[c];
+    water_input += s.system.water_in(c) * s.amounts[c];
+  }
+  const double w = s.speciation.water_mass;
+  for (std::size_t b = 1; b < nb; ++b) {
+    double found = 0.0;
+    for (std::size_t i = 0; i < solutes.size(); ++i) found += solutes[i].stoichiometry[b] * s.speciation.molality[i] * w;
+    RC_ASSERT(std::abs(found - input[b]) <= 1e-10 * input[b]);
+  }
+  double charge = 0.0, equivalents = 0.0, water_bound = 0.0;
+  for (std::size_t i = 0; i < solutes.size(); ++i) {
+    charge += solutes[i].charge * s.speciation.molality[i];
+    equivalents += 0.5 * std::abs(solutes[i].charge) * s.speciation.molality[i];
+    water_bound += solutes[i].water_coefficient * s.speciation.molality[i];
+  }
+  RC_ASSERT(std::abs(charge) <= 1e-10 * equivalents);
+  const double water_found = w * (1.0 / constants::water_molar_mass + water_bound);
+  RC_ASSERT(std::abs(water_found - water_input) <= 1e-10 * water_input);
+  RC_ASSERT(std::isfinite(s.speciation.ph));
+}
+
+}  // namespace
+
+TEST_CASE("every random composition converges with closed balances") {
+  rc::prop("mass, charge and water balances close to 1e-10 relative", [] {
+    const Case c = *random_case();
+    RC_CLASSIFY(std::any_of(c.recipe.begin(), c.recipe.end(), [](const auto& r) { return r.second > 0.1; }),
+                "a component above 0.1 mol/kg");
+    RC_TAG(c.model == ActivityModelKind::davies ? "davies" : c.model == ActivityModelKind::b_dot ? "b-dot" : "ideal");
+    assert_balances_close(solve_case(c));
+  });
+}
+
+TEST_CASE("a temperature outside a system's data range is a typed error") {
+  rc::prop("just outside the range, the solver refuses with out_of_range", [] {
+    const Case c = *random_case();
+    std::vector<std::string> components{"H2O"};
+    std::vector<double> amounts{1.0 / constants::water_molar_mass};
+    for (const auto& [name, m] : c.recipe) {
+      components.push_back(name);
+      amounts.push_back(m);
+    }
+    const ChemicalSystem system(database(), components);
+    EquilibriumSolver solver(system);
+    for (const double t : {system.minimum_temperature() - 0.01, system.maximum_temperature() + 0.01}) {
+      try {
+        solver.solve(t, constants::standard_atmosphere, amounts);
+        RC_FAIL("no error outside the data range");
+      } catch (const ThermoError& e) {
+        RC_ASSERT(e.kind() == ErrorKind::out_of_range);
+      }
+    }
+  });
+}
+
+TEST_CASE("pH rises as base is added") {
+  rc::prop("pH is non-decreasing along a NaOH addition", [] {
+    Case c = *random_case();
+    c.recipe.erase(std::remove_if(c.recipe.begin(), c.recipe.end(), [](const auto& r) { return r.first == "NaOH"; }),
+                   c.recipe.end());
+    std::vector<std::string> components{"H2O", "NaOH"};
+    std::vector<double> amounts{1.0 / constants::water_molar_mass, 0.0};
+    for (const auto& [name, m] : c.recipe) {
+      components.push_back(name);
+      amounts.push_back(m);
+    }
+    SystemOptions options;
+    options.activity = c.model;
+    const ChemicalSystem system(database(), components, options);
+    EquilibriumSolver solver(system);  // warm-started along the addition, as a titration would be
+    double previous_ph = -1e9;
+    for (int step = 0; step <= 12; ++step) {
+      amounts[1] = step == 0 ? 0.0 : std::pow(10.0, -6.0 + 0.5 * (step - 1));  // 0, 1e-6 … 3.2 mol/kg
+      const Speciation out = solver.solve(temperature_of(c, system), constants::standard_atmosphere, amounts);
+      RC_ASSERT(out.ph >= previous_ph - 1e-9);
+      previous_ph = out.ph;
+    }
+  });
+}
+
+TEST_CASE("the answer does not depend on the order of the inputs") {
+  rc::prop("reversing the component order gives the same speciation", [] {
+    const Case c = *random_case();
+    Case reversed = c;
+    std::reverse(reversed.recipe.begin(), reversed.recipe.end());
+    const Solved a = solve_case(c);
+    const Solved b = solve_case(reversed);
+    RC_ASSERT(std::abs(a.speciation.ph - b.speciation.ph) <= 1e-9);
+    for (std::size_t i = 0; i < a.system.solutes().size(); ++i) {
+      const std::size_t j = b.system.index_of_solute(a.system.solutes()[i].name);
+      const double x = a.speciation.molality[i], y = b.speciation.molality[j];
+      RC_ASSERT(std::abs(x - y) <= 1e-8 * std::max(x, y) + 1e-300);
+    }
+  });
+}
