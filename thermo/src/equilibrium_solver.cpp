@@ -4,7 +4,6 @@
 
 #include <kinsol/kinsol.h>
 #include <nvector/nvector_serial.h>
-#include <sunlinsol/sunlinsol_dense.h>
 #include <sunmatrix/sunmatrix_dense.h>
 
 #include <algorithm>
@@ -12,6 +11,7 @@
 #include <cstdlib>
 #include <fmt/format.h>
 
+#include "eigen_dense_linear_solver.hpp"
 #include "initial_guess.hpp"
 #include "protonflow/thermo/constants.hpp"
 #include "protonflow/thermo/errors.hpp"
@@ -79,6 +79,14 @@ struct EquilibriumSolver::Impl {
   std::vector<char> previous_active;
   bool has_previous = false;
   std::string kinsol_message;
+  std::vector<double> evaluated_at;  // the u of the current molalities and activity evaluation
+  bool evaluation_valid = false;
+  // Non-zero stoichiometry of each solute, so the Jacobian skips the zeros of a sparse tableau.
+  struct Term {
+    std::size_t basis;
+    double coefficient;
+  };
+  std::vector<std::vector<Term>> terms;
 
   SUNContext context = nullptr;
   void* kinsol = nullptr;
@@ -126,13 +134,17 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
       guess_x(nb),
       guess_totals(nb),
       previous_u(n + 1),
-      previous_active(n, 0) {
+      previous_active(n, 0),
+      evaluated_at(n + 1),
+      terms(n) {
   SoluteProperties properties;
   for (std::size_t i = 0; i < n; ++i) {
     const Solute& s = chemical_system.solutes()[i];
     charge[i] = s.charge;
     water_coefficient[i] = s.water_coefficient;
     std::copy(s.stoichiometry.begin(), s.stoichiometry.end(), stoichiometry.begin() + static_cast<std::ptrdiff_t>(i * nb));
+    for (std::size_t b = 0; b < nb; ++b)
+      if (s.stoichiometry[b] != 0.0) terms[i].push_back({b, s.stoichiometry[b]});
     properties.charge.push_back(s.charge);
     properties.ion_size_angstrom.push_back(s.ion_size_angstrom);
   }
@@ -157,7 +169,7 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
   check_flag(KINSetMaxSetupCalls(kinsol, 1), "KINSetMaxSetupCalls");  // exact Newton: a fresh Jacobian each step
   check_flag(KINSetMaxNewtonStep(kinsol, 20.0 * std::sqrt(static_cast<double>(size))), "KINSetMaxNewtonStep");
   jacobian_matrix = check_created(SUNDenseMatrix(length, length, context), "SUNDenseMatrix");
-  linear_solver = check_created(SUNLinSol_Dense(u, jacobian_matrix, context), "SUNLinSol_Dense");
+  linear_solver = check_created(detail::make_eigen_dense_linear_solver(context, length), "make_eigen_dense_linear_solver");
   check_flag(KINSetLinearSolver(kinsol, linear_solver, jacobian_matrix), "KINSetLinearSolver");
   check_flag(KINSetJacFn(kinsol, jacobian_callback), "KINSetJacFn");
 }
@@ -176,6 +188,10 @@ EquilibriumSolver::Impl::~Impl() {
 
 // m_i = exp(u_i) for present solutes, exactly 0 for absent ones; then γ and a_w at those m.
 void EquilibriumSolver::Impl::evaluate_molalities(const double* x) {
+  // KINSOL asks for F and then J at the same u: evaluate once.
+  if (evaluation_valid && std::equal(x, x + size, evaluated_at.begin())) return;
+  std::copy(x, x + size, evaluated_at.begin());
+  evaluation_valid = true;
   for (std::size_t i = 0; i < n; ++i) molality[i] = active[i] ? std::exp(std::clamp(x[i], lowest_log, highest_log)) : 0.0;
   water_mass = std::exp(std::clamp(x[n], lowest_log, highest_log));
   activity->evaluate(temperature, pressure, molality, evaluation);
@@ -222,10 +238,8 @@ void EquilibriumSolver::Impl::residual(const double* x, double* f) {
 // ∂F/∂u, column k: ∂(ln γ_i)/∂u_k = (∂ln γ_i/∂m_k) m_k, and likewise for ln a_w.
 void EquilibriumSolver::Impl::jacobian(const double* x, SUNMatrix jm) {
   evaluate_molalities(x);
-  SUNMatZero(jm);
-  const auto at = [&](std::size_t row, std::size_t column) -> double& {
-    return SM_ELEMENT_D(jm, static_cast<sunindextype>(row), static_cast<sunindextype>(column));
-  };
+  double* data = SUNDenseMatrix_Data(jm);  // column-major, size × size; KINSOL zeroes it before each call
+  const auto at = [&](std::size_t row, std::size_t column) -> double& { return data[column * size + row]; };
   const double* dg = evaluation.d_ln_gamma_d_molality.data();
   const double* dw = evaluation.d_ln_water_activity_d_molality.data();
   for (std::size_t i = nb; i < n; ++i) {
@@ -234,32 +248,25 @@ void EquilibriumSolver::Impl::jacobian(const double* x, SUNMatrix jm) {
       continue;
     }
     at(i, i) += 1.0;
-    for (std::size_t b = 0; b < nb; ++b) {
-      const double nu = stoichiometry[i * nb + b];
-      if (nu != 0.0) at(i, b) -= nu;
-    }
+    for (const Term& t : terms[i]) at(i, t.basis) -= t.coefficient;
+    const double* dg_i = dg + i * n;
     for (std::size_t k = 0; k < n; ++k) {
       if (molality[k] == 0.0) continue;
-      double d = dg[i * n + k] - water_coefficient[i] * dw[k];
-      for (std::size_t b = 0; b < nb; ++b) {
-        const double nu = stoichiometry[i * nb + b];
-        if (nu != 0.0) d -= nu * dg[b * n + k];
-      }
+      double d = dg_i[k] - water_coefficient[i] * dw[k];
+      for (const Term& t : terms[i]) d -= t.coefficient * dg[t.basis * n + k];
       at(i, k) += d * molality[k];
     }
   }
-  for (std::size_t b = 1; b < nb; ++b) {
-    if (!active[b]) {
-      at(b, b) = 1.0;
-      continue;
+  for (std::size_t b = 1; b < nb; ++b)
+    if (!active[b]) at(b, b) = 1.0;
+  for (std::size_t k = 0; k < n; ++k) {
+    const double mk = molality[k];
+    for (const Term& t : terms[k]) {
+      if (t.basis == 0 || !active[t.basis]) continue;
+      const double term = t.coefficient * mk;
+      at(t.basis, k) = water_mass * term;
+      at(t.basis, n) += water_mass * term;
     }
-    double amount = 0.0;
-    for (std::size_t k = 0; k < n; ++k) {
-      const double term = stoichiometry[k * nb + b] * molality[k];
-      at(b, k) = water_mass * term;
-      amount += term;
-    }
-    at(b, n) = water_mass * amount;
   }
   double water_bound = 0.0;
   for (std::size_t k = 0; k < n; ++k) {
@@ -402,6 +409,7 @@ void EquilibriumSolver::Impl::solve(double t, double p, std::span<const double> 
     throw ThermoError(ErrorKind::bad_input, fmt::format("pressure {} Pa is not a positive number", p));
   temperature = t;
   pressure = p;
+  evaluation_valid = false;  // γ and a_w depend on T and on which solutes are present
   set_totals(amounts);
   update_log_k(t, p);
 

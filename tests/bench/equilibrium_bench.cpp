@@ -1,0 +1,124 @@
+// The speciation benchmark of docs/performance.md: water with totals of Na, Cl, S(VI), C(IV),
+// N(−III) and Ca at 25 °C, Davies activity, secondary species OH-, HSO4-, HCO3-, CO2(aq), NH3,
+// CaSO4°, NaSO4-, CaCO3°; totals log-uniform in 1e-3…1e-1 mol/kg.
+#include <benchmark/benchmark.h>
+
+#include <algorithm>
+#include <chrono>
+#include <cmath>
+#include <random>
+#include <vector>
+
+#include "protonflow/thermo/chemical_system.hpp"
+#include "protonflow/thermo/constants.hpp"
+#include "protonflow/thermo/database.hpp"
+#include "protonflow/thermo/equilibrium_solver.hpp"
+#include "protonflow/thermo/errors.hpp"
+
+using namespace protonflow::thermo;
+
+namespace {
+
+const Database& database() {
+  static const Database db = load_database(default_data_directory());
+  return db;
+}
+
+// One component per element total; the proton balance follows from charge.
+ChemicalSystem benchmark_system() {
+  SystemOptions options;
+  options.activity = ActivityModelKind::davies;
+  options.secondary_species = {"OH-", "HSO4-", "HCO3-", "CO2(aq)", "NH3(aq)", "CaSO4(aq)", "NaSO4-", "CaCO3(aq)"};
+  return ChemicalSystem(database(), {"H2O", "NaOH", "HCl", "H2SO4", "CO2", "NH3", "Ca(OH)2"}, options);
+}
+
+std::vector<std::vector<double>> draw_cases(std::size_t count) {
+  std::mt19937_64 random(20261201);
+  std::uniform_real_distribution<double> exponent(-3.0, -1.0);
+  std::vector<std::vector<double>> cases;
+  for (std::size_t k = 0; k < count; ++k) {
+    std::vector<double> amounts{1.0 / constants::water_molar_mass};
+    for (int c = 0; c < 6; ++c) amounts.push_back(std::pow(10.0, exponent(random)));
+    cases.push_back(std::move(amounts));
+  }
+  return cases;
+}
+
+double median(std::vector<double> values) {
+  std::nth_element(values.begin(), values.begin() + static_cast<std::ptrdiff_t>(values.size() / 2), values.end());
+  return values[values.size() / 2];
+}
+
+// 10,000 cases: each solved cold, then again warm after a 1 % change of every total (a flowsheet
+// iteration's typical step). Each solve is timed on its own; medians and the convergence rate are
+// reported as counters.
+void speciation_10000_cases(benchmark::State& state) {
+  const ChemicalSystem system = benchmark_system();
+  EquilibriumSolver solver(system);
+  const auto cases = draw_cases(10000);
+  Speciation out;
+  for (auto _ : state) {
+    std::vector<double> cold_us, warm_us;
+    double converged = 0, warm_iterations = 0;
+    for (const auto& amounts : cases) {
+      auto nearby = amounts;
+      for (std::size_t c = 1; c < nearby.size(); ++c) nearby[c] *= 1.01;
+      try {
+        solver.reset_warm_start();
+        const auto t0 = std::chrono::steady_clock::now();
+        solver.solve(298.15, constants::standard_atmosphere, amounts, out);
+        const auto t1 = std::chrono::steady_clock::now();
+        solver.solve(298.15, constants::standard_atmosphere, nearby, out);
+        const auto t2 = std::chrono::steady_clock::now();
+        cold_us.push_back(std::chrono::duration<double, std::micro>(t1 - t0).count());
+        warm_us.push_back(std::chrono::duration<double, std::micro>(t2 - t1).count());
+        warm_iterations += static_cast<double>(out.iterations);
+        converged += 1;
+      } catch (const ThermoError&) {
+        // counted as not converged
+      }
+    }
+    state.counters["cold_median_us"] = median(cold_us);
+    state.counters["warm_median_us"] = median(warm_us);
+    state.counters["warm_newton_iterations_mean"] = warm_iterations / converged;
+    state.counters["converged_percent"] = 100.0 * converged / static_cast<double>(cases.size());
+  }
+}
+BENCHMARK(speciation_10000_cases)->Iterations(1)->Unit(benchmark::kMillisecond);
+
+// Steady warm solving: alternate between two states 1 % apart, as a converging recycle does.
+void speciation_warm_nearby(benchmark::State& state) {
+  const ChemicalSystem system = benchmark_system();
+  EquilibriumSolver solver(system);
+  const auto base = draw_cases(1).front();
+  auto nearby = base;
+  for (std::size_t c = 1; c < nearby.size(); ++c) nearby[c] *= 1.01;
+  Speciation out;
+  solver.solve(298.15, constants::standard_atmosphere, base, out);
+  bool flip = false;
+  for (auto _ : state) {
+    solver.solve(298.15, constants::standard_atmosphere, flip ? base : nearby, out);
+    flip = !flip;
+    benchmark::DoNotOptimize(out.ph);
+  }
+}
+BENCHMARK(speciation_warm_nearby)->Unit(benchmark::kMicrosecond);
+
+// Cold solving through the drawn cases.
+void speciation_cold(benchmark::State& state) {
+  const ChemicalSystem system = benchmark_system();
+  EquilibriumSolver solver(system);
+  const auto cases = draw_cases(1000);
+  Speciation out;
+  std::size_t k = 0;
+  for (auto _ : state) {
+    solver.reset_warm_start();
+    solver.solve(298.15, constants::standard_atmosphere, cases[k++ % cases.size()], out);
+    benchmark::DoNotOptimize(out.ph);
+  }
+}
+BENCHMARK(speciation_cold)->Unit(benchmark::kMicrosecond);
+
+}  // namespace
+
+BENCHMARK_MAIN();
