@@ -6,6 +6,7 @@
 
 #include "protonflow/thermo/formula.hpp"
 #include "protonflow/thermo/temperature_function.hpp"
+#include "protonflow/thermo/water_enthalpy.hpp"
 #include "protonflow/thermo/water_properties.hpp"
 #include "python_reference.hpp"
 #include "solution_probe.hpp"
@@ -43,15 +44,14 @@ TEST_CASE("Kw(T) matches IAPWS R11-07 through python3-iapws from 0 to 100 °C") 
 }
 
 TEST_CASE("molar masses of every data formula match python3-periodictable") {
-  // periodictable reads hydrates as "A+nB" and knows no charges (an electron's mass is below its rounding).
+  // periodictable knows no charges (an electron's mass is below its rounding); hydrates it reads as
+  // "A+nB", checked once on gypsum below.
   std::string script = "import periodictable\n";
   std::vector<const thermo::Species*> species;
   for (const thermo::Species& s : reference::bundled_database().species()) {
-    const std::string text = std::regex_replace(s.name.find('(') != std::string::npos && s.name.ends_with("(aq)")
-                                                    ? to_string(s.formula)
-                                                    : s.name,
-                                                std::regex("[+-][0-9]*$"), "");
-    script += fmt::format("print(periodictable.formula('{}').mass)\n", std::regex_replace(text, std::regex(":"), "+"));
+    // The Hill-order text of the parsed formula: names like "gypsum" are not formulas.
+    const std::string text = std::regex_replace(to_string(s.formula), std::regex("[+-][0-9]*$"), "");
+    script += fmt::format("print(periodictable.formula('{}').mass)\n", text);
     species.push_back(&s);
   }
   script += "print(periodictable.formula('CaSO4+2H2O').mass)\n";
@@ -62,4 +62,34 @@ TEST_CASE("molar masses of every data formula match python3-periodictable") {
     CHECK(1e3 * thermo::molar_mass(species[i]->formula) == Approx(masses[i]).epsilon(1e-9));  // python3-periodictable
   }
   CHECK(1e3 * thermo::molar_mass(thermo::parse_formula("CaSO4:2H2O")) == Approx(masses.back()).epsilon(1e-9));
+}
+
+TEST_CASE("liquid water's heat capacity and enthalpy match IAPWS-95 through python3-iapws from 0 to 100 °C") {
+  const auto reference = run_python(fmt::format(
+      "{}\nM = 18.015268\nh0 = IAPWS95(T=298.15, P=0.101325).h\n"
+      "for T in (273.16, 298.15, 323.15, 348.15, 373.15):\n"
+      "    w = liquid(T)\n    print(w.cp * M, (w.h - h0) * M)\n",
+      iapws_water));
+  REQUIRE(reference.size() == 10);
+  const double temperatures[] = {273.16, 298.15, 323.15, 348.15, 373.15};
+  for (int k = 0; k < 5; ++k) {
+    INFO("T = " << temperatures[k] << " K");
+    // Source: python3-iapws (IAPWS-95), J/(mol K) and J/mol relative to 298.15 K.
+    CHECK(thermo::liquid_water_heat_capacity(temperatures[k]) == Approx(reference[2 * k]).epsilon(2e-3));
+    CHECK(thermo::liquid_water_enthalpy_change(temperatures[k]) == Approx(reference[2 * k + 1]).margin(10.0));
+  }
+}
+
+TEST_CASE("water's vapour pressure matches IAPWS-95 through python3-iapws from 0 to 100 °C") {
+  const auto reference = run_python(
+      "from iapws import IAPWS95\n"
+      "for T in (273.16, 283.15, 298.15, 313.15, 333.15, 353.15, 373.15):\n"
+      "    print(IAPWS95(T=T, x=0).P * 1e6)\n");
+  REQUIRE(reference.size() == 7);
+  const double temperatures[] = {273.16, 283.15, 298.15, 313.15, 333.15, 353.15, 373.15};
+  for (int k = 0; k < 7; ++k) {
+    INFO("T = " << temperatures[k] << " K");
+    // Source: python3-iapws (IAPWS-95 saturation), Pa.
+    CHECK(thermo::water_saturation_pressure(temperatures[k]) == Approx(reference[k]).epsilon(1e-4));
+  }
 }

@@ -1,11 +1,13 @@
 #include "protonflow/thermo/chemical_system.hpp"
 
 #include <algorithm>
+#include <limits>
 #include <fmt/format.h>
 #include <set>
 
 #include "protonflow/thermo/errors.hpp"
 #include "protonflow/thermo/tableau.hpp"
+#include "species_enthalpy.hpp"
 
 namespace protonflow::thermo {
 
@@ -14,6 +16,9 @@ ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string
   if (std::find(components_.begin(), components_.end(), "H2O") == components_.end())
     throw ThermoError(ErrorKind::bad_input, "the component slate must include H2O, the solvent");
   const std::size_t water = database.index_of("H2O");
+  water_formation_enthalpy_ = database.species()[water].formation_enthalpy
+                                  ? database.species()[water].formation_enthalpy->value
+                                  : std::numeric_limits<double>::quiet_NaN();
   const std::size_t proton = database.index_of("H+");
 
   // Basis solutes: H+ first, then every basis species a component needs, in database order.
@@ -57,6 +62,9 @@ ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string
       }
       solute.log_k = s.log_k;
     }
+    const detail::StandardEnthalpy h = detail::standard_enthalpy(database, s);
+    solute.reference_enthalpy = h.at_reference;
+    solute.heat_capacity = h.heat_capacity;
     if (solute.charge != 0 && solute.ion_size_angstrom <= 0.0)
       throw DataError(s.file, s.line, 1, fmt::format("charged species '{}' has no ion_size_angstrom", s.name));
     solutes_.push_back(std::move(solute));
@@ -85,6 +93,73 @@ ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string
     }
   }
 
+  // Solids and gases: every one the basis reaches; the options say which take part.
+  const auto make_phase_species = [&](const Species& s) {
+    PhaseSpecies p;
+    p.name = s.name;
+    p.stoichiometry.assign(basis_count_, 0.0);
+    for (const auto& [name, k] : s.reaction) {
+      if (name == "H2O") {
+        p.water_coefficient += k;
+      } else {
+        p.stoichiometry[static_cast<std::size_t>(basis_position(name))] += k;
+      }
+    }
+    p.log_k = s.log_k;
+    const detail::StandardEnthalpy h = detail::standard_enthalpy(database, s);
+    p.reference_enthalpy = h.at_reference;
+    p.heat_capacity = h.heat_capacity;
+    p.minimum_temperature = s.minimum_temperature;
+    p.maximum_temperature = s.maximum_temperature;
+    return p;
+  };
+  const auto require_phase = [&](const std::string& name, Phase phase, const char* what) -> const Species& {
+    const Species& s = database.species()[database.index_of(name)];
+    if (s.phase != phase) throw ThermoError(ErrorKind::bad_input, fmt::format("'{}' is not a {}", name, what));
+    if (!reachable(s))
+      throw ThermoError(ErrorKind::bad_input,
+                        fmt::format("{} '{}' needs a basis species that no component brings", what, name));
+    return s;
+  };
+  for (const std::string& name : options_.allowed_solids) require_phase(name, Phase::solid, "solid");
+  for (const Species& s : database.species()) {
+    if (s.phase != Phase::solid || !reachable(s)) continue;
+    PhaseSpecies p = make_phase_species(s);
+    p.allowed = std::find(options_.allowed_solids.begin(), options_.allowed_solids.end(), s.name) !=
+                options_.allowed_solids.end();
+    solids_.push_back(std::move(p));
+  }
+  std::vector<std::size_t> pivots_taken;
+  for (const std::string& name : options_.open_gases) {
+    PhaseSpecies p = make_phase_species(require_phase(name, Phase::gas, "gas"));
+    p.allowed = true;
+    // The gas's activity fixes one basis species' activity: the first one not already fixed by another gas.
+    bool found = false;
+    for (std::size_t b = 1; b < basis_count_ && !found; ++b) {
+      if (p.stoichiometry[b] == 0.0 || std::find(pivots_taken.begin(), pivots_taken.end(), b) != pivots_taken.end()) continue;
+      p.pivot = b;
+      pivots_taken.push_back(b);
+      found = true;
+    }
+    if (!found)
+      throw ThermoError(ErrorKind::bad_input,
+                        fmt::format("open gas '{}' fixes no basis species of its own (water vapour belongs to a "
+                                    "closed gas phase; two open gases may not fix the same species)",
+                                    name));
+    open_gases_.push_back(std::move(p));
+  }
+  if (options_.gas_phase) {
+    for (const Species& s : database.species()) {
+      if (s.phase != Phase::gas || !reachable(s)) continue;
+      if (std::find(options_.open_gases.begin(), options_.open_gases.end(), s.name) != options_.open_gases.end())
+        throw ThermoError(ErrorKind::bad_input,
+                          fmt::format("gas '{}' is both open (fixed partial pressure) and part of a closed gas phase", s.name));
+      PhaseSpecies p = make_phase_species(s);
+      p.allowed = true;
+      phase_gases_.push_back(std::move(p));
+    }
+  }
+
   for (std::size_t c = 0; c < components_.size(); ++c) {
     std::vector<double> per_basis(basis_count_, 0.0);
     double water_amount = 0.0;
@@ -103,10 +178,14 @@ ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string
 
   minimum_temperature_ = 0.0;
   maximum_temperature_ = 1e9;
-  for (const Solute& s : solutes_) {
-    minimum_temperature_ = std::max(minimum_temperature_, s.minimum_temperature);
-    maximum_temperature_ = std::min(maximum_temperature_, s.maximum_temperature);
-  }
+  const auto narrow = [&](double low, double high) {
+    minimum_temperature_ = std::max(minimum_temperature_, low);
+    maximum_temperature_ = std::min(maximum_temperature_, high);
+  };
+  for (const Solute& s : solutes_) narrow(s.minimum_temperature, s.maximum_temperature);
+  for (const auto* list : {&solids_, &open_gases_, &phase_gases_})
+    for (const PhaseSpecies& p : *list)
+      if (p.allowed) narrow(p.minimum_temperature, p.maximum_temperature);
 }
 
 std::size_t ChemicalSystem::index_of_solute(std::string_view name) const {

@@ -59,10 +59,16 @@ class DataFileReader {
       s.phase = Phase::aqueous;
     } else if (phase == "l") {
       s.phase = Phase::solvent;
+    } else if (phase == "s") {
+      s.phase = Phase::solid;
+    } else if (phase == "g") {
+      s.phase = Phase::gas;
     } else {
-      fail(node["phase"], fmt::format("phase '{}' is not one of: aq, l (gases and solids come later)", phase));
+      fail(node["phase"], fmt::format("phase '{}' is not one of: aq, l, s, g", phase));
     }
     s.is_basis = node["basis"] && boolean(node["basis"]);
+    if (s.is_basis && (s.phase == Phase::solid || s.phase == Phase::gas))
+      fail(node["basis"], "solids and gases are never basis species: give their formation reaction instead");
     if (node["ion_size_angstrom"]) s.ion_size_angstrom = sourced(node["ion_size_angstrom"], 1.0).value;
     if (node["formation_enthalpy_kJ_mol"]) s.formation_enthalpy = sourced(node["formation_enthalpy_kJ_mol"], 1e3);
     if (node["entropy_J_mol_K"]) s.entropy = sourced(node["entropy_J_mol_K"], 1.0);
@@ -87,7 +93,7 @@ class DataFileReader {
     const YAML::Node function = node["temperature_function"];
     if (!function || !function.IsMap() || function.size() != 1)
       fail(function ? function : node,
-           "'temperature_function' takes exactly one of: van_t_hoff, analytic, water_ionization");
+           "'temperature_function' takes exactly one of: van_t_hoff, analytic, water_ionization, water_vapour");
     const auto key = function.begin()->first.as<std::string>();
     const YAML::Node body = function.begin()->second;
     using Form = TemperatureFunction::Form;
@@ -112,8 +118,10 @@ class DataFileReader {
       s.log_k.reaction_enthalpy = sourced(body["reaction_enthalpy_kJ_mol"], 1e3).value;
     } else if (key == "water_ionization") {
       s.log_k.form = Form::water_ionization;
+    } else if (key == "water_vapour") {
+      s.log_k.form = Form::water_vapour;
     } else {
-      fail(function, fmt::format("unknown temperature function '{}' (van_t_hoff, analytic, water_ionization)", key));
+      fail(function, fmt::format("unknown temperature function '{}' (van_t_hoff, analytic, water_ionization, water_vapour)", key));
     }
   }
 

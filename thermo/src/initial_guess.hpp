@@ -12,8 +12,9 @@ struct GuessProblem {
   std::size_t basis_count = 0;
   std::span<const double> stoichiometry;  // solute × basis, row-major
   std::span<const double> ln_k;           // per solute (0 for basis solutes)
-  std::span<const char> active;           // per solute
+  std::span<const char> swept;            // per basis solute: solve its balance (index < basis_count)
   std::span<const double> basis_total;    // mol per kg of water; index 0 is the proton total (may be < 0)
+  std::span<const char> present;          // per solute: counts in the balances
 };
 
 // Gauss–Seidel sweeps: each basis species' own balance (the proton balance for H+) is solved in

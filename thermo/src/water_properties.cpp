@@ -61,6 +61,20 @@ double water_pkw(double temperature, double density) {
          2.0 * std::log10(molar_mass_g / 1000.0);
 }
 
+double water_saturation_pressure(double temperature) {
+  // Wagner & Pruss (1993), J. Phys. Chem. Ref. Data 22, 783, eq. (1): ln(p/pc) = (Tc/T)(a1 τ +
+  // a2 τ^1.5 + a3 τ³ + a4 τ^3.5 + a5 τ⁴ + a6 τ^7.5), τ = 1 − T/Tc (coefficients from memory; tests
+  // check them against IAPWS-95 through python3-iapws).
+  constexpr double critical_temperature = 647.096;  // K, IAPWS
+  constexpr double critical_pressure = 22.064e6;    // Pa, IAPWS
+  constexpr double a1 = -7.85951783, a2 = 1.84408259, a3 = -11.7866497, a4 = 22.6807411, a5 = -15.9618719,
+                   a6 = 1.80122502;
+  const double tau = 1.0 - temperature / critical_temperature;
+  const double sum = a1 * tau + a2 * std::pow(tau, 1.5) + a3 * tau * tau * tau + a4 * std::pow(tau, 3.5) +
+                     a5 * tau * tau * tau * tau + a6 * std::pow(tau, 7.5);
+  return critical_pressure * std::exp(critical_temperature / temperature * sum);
+}
+
 DebyeHuckelParameters debye_huckel_parameters(double temperature, double /*pressure*/) {
   // A = (2π N_A ρ)^½ (e²/(4π ε0 εr k T))^{3/2} / ln 10 and B = (2 N_A ρ e²/(ε0 εr k T))^½,
   // the Debye–Hückel constants for a molal scale (Robinson & Stokes 1959, Electrolyte Solutions, ch. 9).

@@ -26,6 +26,19 @@ struct Speciation {
   std::vector<double> molality;     // per solute, mol/kg
   std::vector<double> activity;     // per solute
   std::vector<double> log10_gamma;  // per solute
+  // Solids, in the order of ChemicalSystem::solids(): amount precipitated (mol; 0 for a solid that
+  // is absent or not allowed) and saturation index log10(IAP/Ksp) (NaN outside the solid's data range).
+  std::vector<double> solid_amount;
+  std::vector<double> saturation_index;
+  // Open gases, in the order of ChemicalSystem::open_gases(): mol taken up by the solution from the
+  // reservoir (negative: released to it).
+  std::vector<double> gas_uptake;
+  // Closed gas phase, in the order of ChemicalSystem::phase_gases(): mol in the gas phase and the
+  // equilibrium partial pressure over the solution (Pa; equals y·P when the phase exists).
+  bool gas_phase_present = false;
+  double gas_phase_amount = 0.0;  // mol
+  std::vector<double> gas_amount;
+  std::vector<double> partial_pressure;
   long iterations = 0;              // Newton iterations of the final KINSOL call
   double residual_norm = 0.0;       // scaled max-norm of the residual at the answer
   bool warm_started = false;
@@ -57,6 +70,9 @@ class EquilibriumSolver {
   // ConvergenceError with the residuals.
   void solve(double temperature, double pressure, std::span<const double> amounts, Speciation& out);
   Speciation solve(double temperature, double pressure, std::span<const double> amounts);
+  // The same with the partial pressures (Pa) of the system's open gases, in their order.
+  void solve(double temperature, double pressure, std::span<const double> amounts,
+             std::span<const double> open_gas_pressures, Speciation& out);
 
   // Forget the previous answer, so the next solve starts cold.
   void reset_warm_start() noexcept;

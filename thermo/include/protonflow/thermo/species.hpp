@@ -11,7 +11,7 @@
 
 namespace protonflow::thermo {
 
-enum class Phase { aqueous, solvent };
+enum class Phase { aqueous, solvent, solid, gas };
 
 struct SourcedValue {
   double value;        // SI: J/mol, J/(mol K)
@@ -22,7 +22,7 @@ struct Species {
   std::string name;  // unique, e.g. "HSO4-", "CO2(aq)"
   Formula formula;
   Phase phase = Phase::aqueous;
-  bool is_basis = false;
+  bool is_basis = false;  // aqueous basis species and the solvent only
   std::optional<double> ion_size_angstrom;  // charged species only
   std::optional<SourcedValue> formation_enthalpy;
   std::optional<SourcedValue> entropy;

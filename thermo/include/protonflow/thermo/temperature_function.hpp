@@ -11,6 +11,7 @@ struct TemperatureFunction {
     van_t_hoff,        // log K(T) = log K(T°) − ΔrH°/(R ln 10) (1/T − 1/T°), constant ΔrH°
     analytic,          // log K = a1 + a2 T + a3/T + a4 log10 T + a5/T²
     water_ionization,  // H2O − H+ → OH−: −pKw from Bandura & Lvov (2006)
+    water_vapour,      // H2O(l) → H2O(g): log10(p_sat/1 atm), Wagner & Pruss (1993)
   };
   Form form = Form::van_t_hoff;
   double log_k_reference = 0.0;      // log K at 298.15 K (van 't Hoff form)
@@ -20,5 +21,10 @@ struct TemperatureFunction {
 
 // log10 K at temperature (K) and pressure (Pa); pressure enters only through water's density.
 double log_k(const TemperatureFunction& function, double temperature, double pressure);
+
+// ΔrH° (J/mol) that the function implies, R ln10 T² d(log K)/dT (van 't Hoff equation): the stated
+// enthalpy for the van 't Hoff form, the analytic derivative for the analytic form, a central
+// difference of the published function for water's ionization and vapour pressure.
+double reaction_enthalpy(const TemperatureFunction& function, double temperature, double pressure);
 
 }  // namespace protonflow::thermo

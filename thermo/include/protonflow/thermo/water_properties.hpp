@@ -14,6 +14,10 @@ double water_relative_permittivity(double temperature, double density);
 // −log10 Kw (molal scale), IAPWS R11-07 (Bandura & Lvov 2006), given T (K) and density (kg/m³).
 double water_pkw(double temperature, double density);
 
+// Saturation (vapour) pressure of water in Pa, Wagner & Pruss (1993), the IAPWS saturation-line
+// equation, 273.16 K to the critical point.
+double water_saturation_pressure(double temperature);
+
 struct DebyeHuckelParameters {
   double a;  // A (log10 basis), kg^½ mol^-½
   double b;  // B, Å⁻¹ kg^½ mol^-½

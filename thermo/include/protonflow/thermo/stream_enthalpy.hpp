@@ -1,0 +1,33 @@
+// Enthalpy of an equilibrium state, and the temperature of a state of given enthalpy (the adiabatic
+// problem every unit needs). Model and its limits: docs/energy.md.
+#pragma once
+
+#include <span>
+
+#include "protonflow/thermo/chemical_system.hpp"
+#include "protonflow/thermo/equilibrium_solver.hpp"
+
+namespace protonflow::thermo {
+
+// The hook for a concentrated-solution model (the acid mixer's): the enthalpy a state has beyond
+// the dilute-solution sum of standard-state species enthalpies, J.
+class ExcessEnthalpyModel {
+ public:
+  virtual ~ExcessEnthalpyModel() = default;
+  virtual double excess_enthalpy(const ChemicalSystem& system, const Speciation& state) const = 0;
+};
+
+// H of the whole state, J, on the NBS convention (elements in their reference states have H = 0 at
+// 298.15 K): liquid water, every solute, every precipitated solid and the gas phase, each at the
+// state's temperature. Throws ThermoError(bad_data) naming a present species with no enthalpy data.
+double state_enthalpy(const ChemicalSystem& system, const Speciation& state, const ExcessEnthalpyModel* excess = nullptr);
+
+// Finds the temperature at which the equilibrium state of these amounts has the given enthalpy (J)
+// at pressure (Pa), solving speciation at every trial temperature (TOMS 748 on T, each solve warm
+// started). Throws ThermoError(out_of_range) when the enthalpy lies outside the data's temperature
+// range, ConvergenceError when a speciation fails.
+void solve_at_enthalpy(EquilibriumSolver& solver, double enthalpy, double pressure, std::span<const double> amounts,
+                       std::span<const double> open_gas_pressures, Speciation& out,
+                       const ExcessEnthalpyModel* excess = nullptr);
+
+}  // namespace protonflow::thermo

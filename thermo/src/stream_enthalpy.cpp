@@ -1,0 +1,72 @@
+#include "protonflow/thermo/stream_enthalpy.hpp"
+
+#include <boost/math/tools/roots.hpp>
+#include <cmath>
+#include <fmt/format.h>
+
+#include "protonflow/thermo/constants.hpp"
+#include "protonflow/thermo/errors.hpp"
+#include "protonflow/thermo/water_enthalpy.hpp"
+
+namespace protonflow::thermo {
+
+namespace {
+
+// H(T) = H°(298.15 K) + Cp° (T − 298.15 K): constant heat capacity (docs/energy.md).
+template <typename Species>
+double species_enthalpy(const Species& s, double temperature, double amount) {
+  if (amount == 0.0) return 0.0;
+  if (std::isnan(s.reference_enthalpy))
+    throw ThermoError(ErrorKind::bad_data,
+                      fmt::format("'{}' has no formation enthalpy in the species data, so the energy balance of this "
+                                  "state cannot be closed; add formation_enthalpy_kJ_mol to its data",
+                                  s.name));
+  return amount * (s.reference_enthalpy + s.heat_capacity * (temperature - constants::reference_temperature));
+}
+
+}  // namespace
+
+double state_enthalpy(const ChemicalSystem& system, const Speciation& state, const ExcessEnthalpyModel* excess) {
+  const double t = state.temperature;
+  const double water_moles = state.water_mass / constants::water_molar_mass;
+  if (std::isnan(system.water_formation_enthalpy()))
+    throw ThermoError(ErrorKind::bad_data, "H2O has no formation enthalpy in the species data");
+  double h = water_moles * (system.water_formation_enthalpy() + liquid_water_enthalpy_change(t));
+  for (std::size_t i = 0; i < system.solutes().size(); ++i)
+    h += species_enthalpy(system.solutes()[i], t, state.molality[i] * state.water_mass);
+  for (std::size_t p = 0; p < system.solids().size(); ++p) h += species_enthalpy(system.solids()[p], t, state.solid_amount[p]);
+  for (std::size_t g = 0; g < system.phase_gases().size(); ++g)
+    h += species_enthalpy(system.phase_gases()[g], t, state.gas_amount[g]);
+  if (excess) h += excess->excess_enthalpy(system, state);
+  return h;
+}
+
+void solve_at_enthalpy(EquilibriumSolver& solver, double enthalpy, double pressure, std::span<const double> amounts,
+                       std::span<const double> open_gas_pressures, Speciation& out, const ExcessEnthalpyModel* excess) {
+  if (!std::isfinite(enthalpy)) throw ThermoError(ErrorKind::bad_input, "the enthalpy to match is not a finite number");
+  const ChemicalSystem& system = solver.system();
+  const auto mismatch = [&](double t) {
+    solver.solve(t, pressure, amounts, open_gas_pressures, out);
+    return state_enthalpy(system, out, excess) - enthalpy;
+  };
+  double low = system.minimum_temperature(), high = system.maximum_temperature();
+  const double at_low = mismatch(low), at_high = mismatch(high);
+  if (at_low > 0.0 || at_high < 0.0)
+    throw ThermoError(ErrorKind::out_of_range,
+                      fmt::format("an enthalpy of {:.6g} J puts this state {} the data's range {:.2f}–{:.2f} K "
+                                  "(it would need {:+.4g} J more to reach {:.2f} K)",
+                                  enthalpy, at_low > 0.0 ? "below" : "above", low, high,
+                                  at_low > 0.0 ? at_low : at_high, at_low > 0.0 ? low : high));
+  // TOMS 748 (Alefeld, Potra & Shi 1995) until the bracket is 1e-9 K wide.
+  std::uintmax_t iterations = 100;
+  const auto [a, b] = boost::math::tools::toms748_solve(
+      mismatch, low, high, at_low, at_high, [](double x, double y) { return std::abs(y - x) < 1e-9; }, iterations);
+  if (iterations >= 100)
+    throw ThermoError(ErrorKind::not_converged,
+                      fmt::format("the temperature for an enthalpy of {:.6g} J was not bracketed to 1e-9 K in 100 steps "
+                                  "(last bracket {:.9f}–{:.9f} K)",
+                                  enthalpy, a, b));
+  mismatch(0.5 * (a + b));
+}
+
+}  // namespace protonflow::thermo
