@@ -138,6 +138,47 @@ std::vector<ReferenceCase> build_cases() {
                    "Bates & Pinching 1949 pKa with Henderson-Hasselbalch", 9.245, 0.001,
                    [] { return ph({{"NH4Cl", 0.5}, {"NaOH", 0.25}}, ActivityModelKind::ideal); }});
 
+  // Henry's law at 25 °C: molecular solute per atm over water open to the gas (γ = 1 for neutral
+  // species in every model), and the combined constant of a strong acid.
+  const std::string henry = "Henry's law, 25 °C, mol kg⁻¹ atm⁻¹";
+  const auto henry_constant = [](const char* gas, const char* solute, double atm) {
+    const ProbeResult r = solve_open_to({}, gas, atm * 101325.0, ActivityModelKind::ideal);
+    return r.molality(solute) / atm;
+  };
+  cases.push_back({henry, "CO2 at 1 atm: m(CO2(aq)) / p", pb, 0.0340, 0.02 * 0.0340,
+                   [=] { return henry_constant("CO2(g)", "CO2(aq)", 1.0); }});
+  const std::string sander = "Sander 2015, Atmos. Chem. Phys. 15, 4399 (from memory)";
+  cases.push_back({henry, "SO2 at 1e-3 atm: m(SO2(aq)) / p", sander, 1.23, 0.123,
+                   [=] { return henry_constant("SO2(g)", "SO2(aq)", 1e-3); }});
+  cases.push_back({henry, "NH3 at 1e-4 atm: m(NH3(aq)) / p", sander, 59.0, 5.9,
+                   [=] { return henry_constant("NH3(g)", "NH3(aq)", 1e-4); }});
+  cases.push_back({henry, "H2S at 1e-2 atm: m(H2S(aq)) / p", sander, 0.10, 0.010,
+                   [=] { return henry_constant("H2S(g)", "H2S(aq)", 1e-2); }});
+  cases.push_back({henry, "HCl at 1e-8 atm: γ±² m(H+) m(Cl-) / p (Davies), mol² kg⁻² atm⁻¹ / 1e6",
+                   "Brimblecombe & Clegg 1988, J. Atmos. Chem. 7, 1 (from memory)", 2.04, 0.204, [] {
+                     const ProbeResult r = solve_open_to({}, "HCl(g)", 1e-8 * 101325.0, ActivityModelKind::davies);
+                     const double gamma2 = std::pow(10.0, r.log10_gamma("H+") + r.log10_gamma("Cl-"));
+                     return gamma2 * r.molality("H+") * r.molality("Cl-") / 1e-8 / 1e6;
+                   }});
+  cases.push_back({henry, "water vapour pressure over pure water, kPa", "IAPWS-95 through python3-iapws", 3.1699,
+                   0.001 * 3.1699, [] { return equilibrium_partial_pressure({}, "H2O(g)", ActivityModelKind::davies) / 1e3; }});
+
+  // Enthalpies from the engine's state enthalpies (NBS data, dilute-solution model), kJ/mol.
+  const std::string energy = "Reaction and solution enthalpies, 298.15 K, kJ/mol";
+  const std::string nbs = "NBS tables, Wagman et al. 1982 (from memory)";
+  cases.push_back({energy, "H+ + OH- → H2O(l), from HCl and NaOH at 1e-4 mol/kg", nbs, -55.84, 0.3,
+                   [] { return neutralisation_enthalpy(1e-4) / 1e3; }});
+  // Dissolving into 1 kg of water at 1e-4 mol/kg: low enough that ion association is negligible,
+  // high enough that water's own ions, which the acid or base pushes back, add under 0.06 kJ/mol.
+  cases.push_back({energy, "HCl(g) → H+ + Cl-, 1e-4 mol into 1 kg of water", nbs, -74.85, 0.3,
+                   [] { return dissolution_enthalpy("HCl", "HCl(g)", 1e-4) / 1e3; }});
+  cases.push_back({energy, "NaOH(s) → Na+ + OH-, 1e-4 mol into 1 kg of water", nbs, -44.51, 0.3,
+                   [] { return dissolution_enthalpy("NaOH", "NaOH(s)", 1e-4) / 1e3; }});
+  // H2SO4 at any finite molality forms HSO4- (2 % at 1e-4 mol/kg, +0.4 kJ/mol): the published value
+  // is the standard-state one, so the case sums the engine's standard-state species enthalpies.
+  cases.push_back({energy, "H2SO4(l) → 2 H+ + SO4-2, standard states", nbs, -95.28, 0.3,
+                   [] { return standard_dissolution_enthalpy("H2SO4", "H2SO4(l)") / 1e3; }});
+
   cases.push_back({masses, "M(H2SO4)", pt, 98.0785, 1e-4, [] { return grams_per_mole("H2SO4"); }});
   cases.push_back({masses, "M(CaSO4·2H2O)", pt, 172.1712, 1e-4, [] { return grams_per_mole("CaSO4:2H2O"); }});
   return cases;

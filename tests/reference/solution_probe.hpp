@@ -29,6 +29,26 @@ ProbeResult solve_recipe(const Recipe& recipe, thermo::ActivityModelKind model, 
 // log10 K of a species' formation reaction from the bundled data, at temperature (K).
 double formation_log_k(const std::string& species, double temperature = 298.15);
 
+// A solution of these molalities open to one gas at a partial pressure (Pa).
+ProbeResult solve_open_to(const Recipe& recipe, const std::string& gas, double partial_pressure,
+                          thermo::ActivityModelKind model);
+
+// Partial pressure (Pa) of a gas over a solution in a closed system at 1 atm total pressure.
+double equilibrium_partial_pressure(const Recipe& recipe, const std::string& gas, thermo::ActivityModelKind model);
+
+// ΔH (J/mol) of dissolving `amount` mol of a pure species (its data ΔfH°) into 1 kg of water at
+// 298.15 K, as the difference of the engine's state enthalpies: the infinite-dilution heat of
+// solution when the amount is small.
+double dissolution_enthalpy(const std::string& component, const std::string& pure_species, double amount);
+
+// ΔH (J/mol) of turning one mole of a pure species into the standard-state solutes its component
+// decomposes into (the infinite-dilution heat of solution), from the engine's species enthalpies.
+double standard_dissolution_enthalpy(const std::string& component, const std::string& pure_species);
+
+// ΔH (J/mol of water formed) of mixing 1 kg of HCl solution with 1 kg of NaOH solution of the same
+// molality at 298.15 K, from the engine's state enthalpies.
+double neutralisation_enthalpy(double molality);
+
 // Mean activity coefficient of a salt CaXb at the given molality: (γ+^a γ−^b)^(1/(a+b)).
 double mean_activity_coefficient(const std::string& salt, const std::string& cation, int cations,
                                  const std::string& anion, int anions, double molality, thermo::ActivityModelKind model);

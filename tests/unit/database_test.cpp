@@ -27,7 +27,7 @@ TEST_CASE("the bundled species data loads and every reaction balances") {
   CHECK(db.species().size() >= 50);
   for (const Species& s : db.species()) {
     INFO(s.name << " from " << s.file << ":" << s.line);
-    if (!s.is_basis) CHECK_FALSE(s.log_k_source.empty());
+    if (!s.is_basis && s.phase != Phase::liquid) CHECK_FALSE(s.log_k_source.empty());
     if (s.formula.charge != 0) CHECK(s.ion_size_angstrom.has_value());
   }
 }

@@ -31,6 +31,12 @@ ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string
     for (const auto& [index, k] : combinations.back())
       if (index != water) used.insert(index);
   }
+  // An open gas brings its own basis species: water open to air takes up carbonate it never had.
+  for (const std::string& name : options_.open_gases) {
+    const Species& gas = database.species()[database.index_of(name)];
+    for (const auto& [basis_name, k] : gas.reaction)
+      if (basis_name != "H2O") used.insert(database.index_of(basis_name));
+  }
   std::vector<std::size_t> basis{proton};
   for (std::size_t index : used)
     if (index != proton) basis.push_back(index);

@@ -58,7 +58,7 @@ class DataFileReader {
     if (phase == "aq") {
       s.phase = Phase::aqueous;
     } else if (phase == "l") {
-      s.phase = Phase::solvent;
+      s.phase = s.name == "H2O" ? Phase::solvent : Phase::liquid;
     } else if (phase == "s") {
       s.phase = Phase::solid;
     } else if (phase == "g") {
@@ -75,9 +75,9 @@ class DataFileReader {
     if (node["heat_capacity_J_mol_K"]) s.heat_capacity = sourced(node["heat_capacity_J_mol_K"], 1.0);
     if (node["temperature_range_K"]) read_range(node["temperature_range_K"], s);
 
-    if (s.is_basis) {
+    if (s.is_basis || s.phase == Phase::liquid) {
       for (const char* key : {"reaction", "log_k", "temperature_function"})
-        if (node[key]) fail(node[key], fmt::format("a basis species has no '{}'", key));
+        if (node[key]) fail(node[key], fmt::format("a {} has no '{}'", s.is_basis ? "basis species" : "pure liquid", key));
       return s;
     }
     if (!node["reaction"] || !node["reaction"].IsMap() || node["reaction"].size() == 0)
@@ -237,7 +237,7 @@ Database load_database(const std::filesystem::path& directory) {
   }
   Database database(std::move(all));
   for (const Species& s : database.species())
-    if (!s.is_basis) check_reaction_balance(database, s);
+    if (!s.is_basis && s.phase != Phase::liquid) check_reaction_balance(database, s);
   if (!database.find("H2O") || !database.find("H+") || !database.find("OH-"))
     throw ThermoError(ErrorKind::bad_data, "the species data must define H2O, H+ and OH-");
   return database;

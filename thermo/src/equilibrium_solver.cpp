@@ -647,7 +647,15 @@ int EquilibriumSolver::Impl::run_kinsol(int strategy) {
   for (std::size_t i = 0; i < n; ++i) charge_scale += 0.5 * std::abs(charge[i]) * molality[i];
   for (std::size_t i = 0; i < size; ++i) scale[i] = 1.0;
   scale[0] = 1.0 / std::max(charge_scale, 1e-300);
-  for (std::size_t b = 1; b < nb; ++b) scale[b] = active[b] ? 1.0 / (basis_total[b] > 0.0 ? basis_total[b] : uptake_scale) : 1.0;
+  // A mass balance is relative to the larger of its total and what the solution holds now: an open
+  // gas brings in what the inputs never had (carbonate into water open to air).
+  for (std::size_t b = 1; b < nb; ++b) {
+    if (!active[b]) continue;
+    double dissolved = 0.0;
+    for (std::size_t i = 0; i < n; ++i) dissolved += stoichiometry[i * nb + b] * molality[i] * water_mass;
+    const double natural = std::max(basis_total[b], dissolved);
+    scale[b] = 1.0 / (natural > 0.0 ? natural : uptake_scale);
+  }
   scale[n] = 1.0 / water_total;
   // Solve, then check the flag.
   return KINSol(kinsol, u, strategy, u_scale, f_scale);

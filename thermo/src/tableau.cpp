@@ -119,14 +119,19 @@ std::string describe(const Database& database, const BasisCombination& combinati
 
 BasisCombination decompose(const Database& database, std::string_view component) {
   // A database species named or written exactly so: its own reaction is the decomposition.
+  // A pure liquid (H2SO4(l)) has no reaction: it decomposes by its formula like any compound.
+  const auto has_reaction = [](const Species& s) { return s.is_basis || !s.reaction.empty(); };
   const Species* named = database.find(component);
   Formula formula;
   if (named) {
     formula = named->formula;
+    if (!has_reaction(*named)) named = nullptr;
   } else {
     formula = parse_formula(component);
+  }
+  if (!named) {
     for (const Species& s : database.species()) {
-      if (s.formula.elements == formula.elements && s.formula.charge == formula.charge) {
+      if (has_reaction(s) && s.formula.elements == formula.elements && s.formula.charge == formula.charge) {
         named = &s;
         break;
       }

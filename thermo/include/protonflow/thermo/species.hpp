@@ -11,7 +11,8 @@
 
 namespace protonflow::thermo {
 
-enum class Phase { aqueous, solvent, solid, gas };
+// solvent: H2O only; liquid: a pure liquid feed (concentrated acid) that is never a phase of a solve.
+enum class Phase { aqueous, solvent, solid, gas, liquid };
 
 struct SourcedValue {
   double value;        // SI: J/mol, J/(mol K)
