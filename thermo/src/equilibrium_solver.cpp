@@ -66,6 +66,7 @@ struct EquilibriumSolver::Impl {
   void predict_precipitation(std::size_t allowed_index);
   void update_log_k(double temperature, double pressure);
   void ideal_guess(double* u);  // for the current set of present phases
+  void guess_pass(double* u, double ln_water_activity);
   bool solve_current_set();
   bool replace_rival(std::size_t added);
   int run_kinsol(int strategy);
@@ -105,6 +106,7 @@ struct EquilibriumSolver::Impl {
   double water_mass = 0.0;
   std::vector<double> before_addition;  // u before the latest solid was added
   std::vector<double> newton_start;    // u before a Newton solve, for the full-step retry
+  std::vector<double> guess_ln_gamma, conditional_ln_k;  // the guess's activity corrections
   std::vector<double> shift_by_basis;  // ln of the fraction of each basis species a precipitation leaves
   std::vector<double> guess_x, guess_totals, guess_stoichiometry, guess_ln_k, previous_u, gradient;
   std::vector<char> guess_active, previous_active;
@@ -167,6 +169,8 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
       open_log_pressure(chemical_system.open_gases().size()),
       evaluation(n),
       molality(n),
+      guess_ln_gamma(n),
+      conditional_ln_k(n),
       shift_by_basis(nb),
       guess_x(nb),
       guess_totals(nb),
@@ -507,15 +511,40 @@ void EquilibriumSolver::Impl::update_log_k(double t, double p) {
   log_k_temperature = t;
 }
 
-// Ideal sweeps with a_w = 1 and W from the water total, then the unknowns from that guess. A phase
-// of fixed activity — an open gas (p/p°) or a solid taken as present (activity 1) — fixes one basis
-// species, its pivot: the guess swaps the phase into the basis in its place (docs/equilibrium.md),
-// so every balance the sweeps solve stays monotone, and the phase's amount follows from the pivots'
-// mass balances.
+// The cold start: the ideal problem (then with the previous pass's γ and a_w as conditional
+// constants) minimised as a convex function of the basis ln molalities, W from the water total. A
+// phase of fixed activity — an open gas (p/p°) or a solid taken as present (activity 1) — fixes one
+// basis species, its pivot: the guess swaps the phase into the basis in its place
+// (docs/equilibrium.md), which keeps the problem convex, and the phase's amount follows from the
+// pivots' mass balances.
 void EquilibriumSolver::Impl::ideal_guess(double* x) {
+  // Up to three passes: ideal first, then with the activity coefficients and water activity of the
+  // previous pass as conditional constants, which brings a concentrated solution's guess close.
+  std::fill(guess_ln_gamma.begin(), guess_ln_gamma.end(), 0.0);
+  double ln_water_activity = 0.0;
+  const int passes = system->options().activity == ActivityModelKind::ideal ? 1 : 3;
+  for (int pass = 0; pass < passes; ++pass) {
+    guess_pass(x, ln_water_activity);
+    if (pass + 1 == passes) break;
+    evaluate_molalities(x);
+    std::copy(evaluation.ln_gamma.begin(), evaluation.ln_gamma.end(), guess_ln_gamma.begin());
+    ln_water_activity = evaluation.ln_water_activity;
+  }
+}
+
+void EquilibriumSolver::Impl::guess_pass(double* x, double ln_water_activity) {
   const double water_guess = water_total * constants::water_molar_mass;
   std::copy(stoichiometry.begin(), stoichiometry.end(), guess_stoichiometry.begin());
-  std::copy(ln_k.begin(), ln_k.end(), guess_ln_k.begin());
+  // Conditional constants: ln m_i = ln K'_i + Σ_b ν_ib ln m_b with the γ and a_w of the last pass.
+  for (std::size_t i = 0; i < n; ++i) {
+    double k = ln_k[i];
+    if (i >= nb) {
+      k += water_coefficient[i] * ln_water_activity - guess_ln_gamma[i];
+      for (const Term& t : terms[i]) k += t.coefficient * guess_ln_gamma[t.basis];
+    }
+    conditional_ln_k[i] = k;
+  }
+  std::copy(conditional_ln_k.begin(), conditional_ln_k.end(), guess_ln_k.begin());
   std::copy(active.begin(), active.end(), guess_active.begin());
   for (std::size_t b = 0; b < nb; ++b) guess_totals[b] = (b == 0 ? proton_total : basis_total[b]) / water_guess;
 
@@ -528,10 +557,19 @@ void EquilibriumSolver::Impl::ideal_guess(double* x) {
     double constant, scale;  // ln activity − ln K; amount = scale · x[unknown] is held out of solution
   };
   std::vector<Fixed> fixed;
+  // ln activity − ln K − Σ_b ν_b ln γ_b − ν_w ln a_w: the phase's condition on the basis molalities.
+  const auto condition = [&](const PhaseSpecies& p, double ln_activity, double ln_k_phase) {
+    double c = ln_activity - ln_k_phase - p.water_coefficient * ln_water_activity;
+    for (std::size_t b = 0; b < nb; ++b) c -= p.stoichiometry[b] * guess_ln_gamma[b];
+    return c;
+  };
   for (std::size_t o = 0; o < open.size(); ++o)
-    fixed.push_back({&open[o], open[o].pivot, open_offset + o, open_log_pressure[o] - ln_k_open[o], -uptake_scale});
+    fixed.push_back({&open[o], open[o].pivot, open_offset + o, condition(open[o], open_log_pressure[o], ln_k_open[o]),
+                     -uptake_scale});
   for (std::size_t a = 0; a < allowed.size(); ++a)
-    if (solid_present[a]) fixed.push_back({&solids[allowed[a]], nb, solid_offset + a, -ln_k_solid[allowed[a]], solid_scale[a]});
+    if (solid_present[a])
+      fixed.push_back({&solids[allowed[a]], nb, solid_offset + a, condition(solids[allowed[a]], 0.0, ln_k_solid[allowed[a]]),
+                       solid_scale[a]});
 
   // row[f]: phase f's stoichiometry in the current (swapped) basis. Each phase takes as pivot a basis
   // species still in its swapped row (an open gas its own pivot where it can, H+ only as the last
@@ -578,11 +616,11 @@ void EquilibriumSolver::Impl::ideal_guess(double* x) {
     swapped_row.push_back(row[f]);
   }
   for (std::size_t b = 0; b < nb; ++b)
-    guess_x[b] = active[b] ? std::log(std::max(std::abs(guess_totals[b]), 1e-7)) : inactive_log_molality;
-  // The sweeps skip swapped-out and absent basis species, but solutes built from them stay in.
+    guess_x[b] = !active[b] ? inactive_log_molality : b == 0 ? std::log(1e-7) : std::log(std::max(std::abs(guess_totals[b]), 1e-7));
+  // Swapped-out and absent basis species are not variables, but solutes built from them stay in.
   detail::GuessProblem problem{n, nb, guess_stoichiometry, guess_ln_k, std::span<const char>(guess_active.data(), n),
                                guess_totals, std::span<const char>(active.data(), n)};
-  detail::sweep_basis_balances(problem, guess_x, 30);
+  detail::minimise_ideal_dual(problem, guess_x, 100);
   // Back-substitute the pivots, last swap first.
   for (std::size_t f = swapped.size(); f-- > 0;) {
     const std::size_t pivot = swapped[f].pivot;
@@ -597,7 +635,7 @@ void EquilibriumSolver::Impl::ideal_guess(double* x) {
       x[i] = inactive_log_molality;
       continue;
     }
-    double exponent = ln_k[i];
+    double exponent = conditional_ln_k[i];
     for (std::size_t b = 0; b < nb; ++b) exponent += stoichiometry[i * nb + b] * x[b];
     x[i] = std::clamp(exponent, lowest_log, highest_log);
   }
