@@ -17,8 +17,9 @@ namespace protonflow::host {
 namespace {
 
 constexpr std::array<std::string_view, 1> top_level_keys{"solution"};
-constexpr std::array<std::string_view, 7> solution_keys{
-    "name", "temperature", "pressure", "activity_model", "amounts_as", "water_mass", "components"};
+constexpr std::array<std::string_view, 11> solution_keys{
+    "name",       "temperature", "pressure",  "activity_model", "amounts_as", "water_mass",
+    "components", "may_precipitate", "open_to", "gas_phase",   "enthalpy"};
 constexpr std::array<std::string_view, 3> activity_model_names{"davies", "b-dot", "ideal"};
 constexpr std::array<std::string_view, 3> basis_names{"molality", "moles", "mass_fraction"};
 
@@ -250,12 +251,24 @@ SolutionInput read_solution_file(const std::string& file, const UnitConverter& u
     input.name = scalar_text(file, *name, "a label for the report");
   }
 
-  const Entry& temperature = require_entry(entries, "temperature", input.solution_at, "give it with a unit, e.g. '25 degC'");
-  input.temperature = read_quantity(file, temperature, units, "K", "25 degC",
-                                    "a bare number could mean kelvin or degrees Celsius");
-  input.temperature_at = position_of(file, temperature.value);
-  if (input.temperature <= 0.0) {
-    throw InputError(input.temperature_at, "temperature is at or below absolute zero");
+  // The temperature is given, or found from the enthalpy: one of the two, never both.
+  if (const Entry* const enthalpy = find_entry(entries, "enthalpy")) {
+    if (find_entry(entries, "temperature") != nullptr) {
+      throw InputError(position_of(file, enthalpy->key),
+                       "give 'temperature' or 'enthalpy', not both: with an enthalpy the temperature is the answer");
+    }
+    input.enthalpy = read_quantity(file, *enthalpy, units, "J", "-15.87 MJ", "an enthalpy needs its unit (J, kJ, MJ)");
+    input.enthalpy_at = position_of(file, enthalpy->value);
+    input.temperature_at = input.enthalpy_at;
+  } else {
+    const Entry& temperature = require_entry(entries, "temperature", input.solution_at,
+                                             "give it with a unit, e.g. '25 degC' (or give 'enthalpy' instead)");
+    input.temperature = read_quantity(file, temperature, units, "K", "25 degC",
+                                      "a bare number could mean kelvin or degrees Celsius");
+    input.temperature_at = position_of(file, temperature.value);
+    if (input.temperature <= 0.0) {
+      throw InputError(input.temperature_at, "temperature is at or below absolute zero");
+    }
   }
 
   if (const Entry* const pressure = find_entry(entries, "pressure")) {
@@ -298,6 +311,39 @@ SolutionInput read_solution_file(const std::string& file, const UnitConverter& u
                                           "list each formula with its amount, e.g. 'NaCl: 0.1'");
   input.components_at = position_of(file, components.key);
   input.components = read_components(file, components, input.basis, units);
+
+  if (const Entry* const solids = find_entry(entries, "may_precipitate")) {
+    if (solids->value.IsScalar() && solids->value.Scalar() == "all") {
+      input.all_solids = true;
+    } else if (solids->value.IsSequence()) {
+      for (const auto& item : solids->value) {
+        if (!item.IsScalar()) throw InputError(position_of(file, item), "each solid is named, e.g. 'gypsum'");
+        input.solids.push_back(PhaseEntry{item.Scalar(), 0.0, position_of(file, item)});
+      }
+    } else {
+      throw InputError(position_of(file, solids->value.IsNull() ? solids->key : solids->value),
+                       "'may_precipitate' is 'all' or a list of solids, e.g. [gypsum, calcite]");
+    }
+  }
+  if (const Entry* const open = find_entry(entries, "open_to")) {
+    if (!open->value.IsMap() || open->value.size() == 0) {
+      throw InputError(position_of(file, open->value.IsNull() ? open->key : open->value),
+                       "'open_to' maps each gas to its partial pressure, e.g. 'CO2(g): 40 Pa'");
+    }
+    for (const auto& pair : open->value) {
+      const Entry gas{pair.first, pair.second};
+      const double pressure = read_quantity(file, gas, units, "Pa", "40 Pa", "a partial pressure needs its unit");
+      if (!(pressure > 0.0)) throw InputError(position_of(file, pair.second), "a partial pressure must be above zero");
+      input.open_gases.push_back(PhaseEntry{pair.first.Scalar(), pressure, position_of(file, pair.first)});
+    }
+  }
+  if (const Entry* const gas = find_entry(entries, "gas_phase")) {
+    bool value = false;
+    if (!gas->value.IsScalar() || !YAML::convert<bool>::decode(gas->value, value)) {
+      throw InputError(position_of(file, gas->value.IsNull() ? gas->key : gas->value), "'gas_phase' is true or false");
+    }
+    input.gas_phase = value;
+  }
   return input;
 }
 

@@ -29,6 +29,13 @@ struct ComponentEntry {
   SourcePosition value_at;
 };
 
+// A named phase the solution may form or is open to, where the file names it.
+struct PhaseEntry {
+  std::string name;           // database name, e.g. "gypsum", "CO2(g)"
+  double partial_pressure = 0.0;  // Pa, open gases only
+  SourcePosition at;
+};
+
 struct SolutionInput {
   std::string file;
   std::string name;                   // optional label, empty if not given
@@ -38,6 +45,13 @@ struct SolutionInput {
   AmountBasis basis = AmountBasis::molality;
   std::optional<double> water_mass;   // kg; molality basis only
   std::vector<ComponentEntry> components;  // in file order
+  // Solids allowed to precipitate; every solid the components reach when may_precipitate is 'all'.
+  std::vector<PhaseEntry> solids;
+  bool all_solids = false;
+  std::vector<PhaseEntry> open_gases;  // fixed partial pressures
+  bool gas_phase = false;              // a closed gas phase may form at the pressure
+  std::optional<double> enthalpy;      // J for the amounts given: find the temperature
+  SourcePosition enthalpy_at;
   SourcePosition solution_at;
   SourcePosition temperature_at;
   SourcePosition pressure_at;         // the solution key when pressure took its default

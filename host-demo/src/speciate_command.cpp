@@ -10,6 +10,7 @@
 #include "protonflow/thermo/database.hpp"
 #include "protonflow/thermo/equilibrium_solver.hpp"
 #include "protonflow/thermo/errors.hpp"
+#include "protonflow/thermo/stream_enthalpy.hpp"
 #include "protonflow/thermo/tableau.hpp"
 #include "quantity.hpp"
 #include "solution_file.hpp"
@@ -60,6 +61,24 @@ void check_temperature_range(const thermo::ChemicalSystem& system, const Solutio
   }
 }
 
+// Each named solid and gas must be one of the database's, of the right phase: said at its own line.
+void check_phases_known(const thermo::Database& database, const SolutionInput& input) {
+  const auto check = [&](const PhaseEntry& entry, thermo::Phase phase, std::string_view what) {
+    const thermo::Species* species = database.find(entry.name);
+    if (species != nullptr && species->phase == phase) return;
+    std::vector<std::string> names;
+    for (const thermo::Species& s : database.species())
+      if (s.phase == phase) names.push_back(s.name);
+    std::string known;
+    for (const std::string& name : names) known += (known.empty() ? "" : ", ") + name;
+    throw InputError(entry.at, species == nullptr ? fmt::format("unknown {} '{}'; the data know: {}", what, entry.name, known)
+                                                  : fmt::format("'{}' is not a {}; the data's {}s are: {}", entry.name,
+                                                                what, what, known));
+  };
+  for (const PhaseEntry& solid : input.solids) check(solid, thermo::Phase::solid, "solid");
+  for (const PhaseEntry& gas : input.open_gases) check(gas, thermo::Phase::gas, "gas");
+}
+
 // The slate's amounts, reordered to the system's component order.
 std::vector<double> amounts_in_system_order(const thermo::ChemicalSystem& system, const ComponentSlate& slate) {
   std::vector<double> amounts(system.components().size(), 0.0);
@@ -97,6 +116,18 @@ SpeciationReport make_report(const SolutionInput& input, const thermo::ChemicalS
     report.solutes.push_back(SoluteLabel{solute.name, solute.charge});
   }
   report.warnings = thermo::describe_warnings(speciation);
+  try {
+    report.enthalpy = thermo::state_enthalpy(system, speciation);
+  } catch (const thermo::ThermoError& error) {
+    report.enthalpy_unavailable = error.what();
+  }
+  for (const thermo::PhaseSpecies& solid : system.solids()) report.solids.push_back(solid.name);
+  for (const thermo::PhaseSpecies& gas : system.open_gases()) report.open_gases.push_back(gas.name);
+  for (const thermo::PhaseSpecies& gas : system.phase_gases()) report.phase_gases.push_back(gas.name);
+  for (std::size_t p = 0; p < system.solids().size(); ++p)
+    if (speciation.solid_amount[p] > 0.0) report.warnings.push_back(fmt::format("{} precipitates", system.solids()[p].name));
+  if (speciation.gas_phase_present)
+    report.warnings.push_back("a gas phase forms: the solution degasses or boils at this temperature and pressure");
   report.speciation = std::move(speciation);
   return report;
 }
@@ -116,17 +147,32 @@ int speciate(const SpeciateOptions& options, std::ostream& out, std::ostream& er
   const SolutionInput input = read_solution_file(options.file, units);
   const thermo::Database database = load_data(options.data_directory);
   check_components_known(database, input);
+  check_phases_known(database, input);
   const ComponentSlate slate = to_component_slate(input);
   try {
     thermo::SystemOptions system_options;
     system_options.activity = input.activity_model;
+    system_options.gas_phase = input.gas_phase;
+    for (const PhaseEntry& gas : input.open_gases) system_options.open_gases.push_back(gas.name);
+    if (input.all_solids) {
+      const thermo::ChemicalSystem without(database, slate.names, system_options);
+      for (const thermo::PhaseSpecies& solid : without.solids()) system_options.allowed_solids.push_back(solid.name);
+    }
+    for (const PhaseEntry& solid : input.solids) system_options.allowed_solids.push_back(solid.name);
     const thermo::ChemicalSystem system(database, slate.names, system_options);
-    check_temperature_range(system, input);
+    if (!input.enthalpy) check_temperature_range(system, input);
     std::vector<double> amounts = amounts_in_system_order(system, slate);
+    std::vector<double> pressures;
+    for (const PhaseEntry& gas : input.open_gases) pressures.push_back(gas.partial_pressure);
     thermo::SolverOptions solver_options;
     solver_options.max_iterations = options.max_iterations;
     thermo::EquilibriumSolver solver(system, solver_options);
-    thermo::Speciation speciation = solver.solve(input.temperature, input.pressure, amounts);
+    thermo::Speciation speciation;
+    if (input.enthalpy) {
+      thermo::solve_at_enthalpy(solver, *input.enthalpy, input.pressure, amounts, pressures, speciation);
+    } else {
+      solver.solve(input.temperature, input.pressure, amounts, pressures, speciation);
+    }
     const SpeciationReport report = make_report(input, system, std::move(amounts), std::move(speciation));
     out << (options.table ? to_table(report) : to_yaml(report));
     // Warnings also go to stderr, so a user who redirects the results still sees them.

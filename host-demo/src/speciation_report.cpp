@@ -56,6 +56,45 @@ std::string to_yaml(const SpeciationReport& report) {
   out << YAML::Key << "warm_started" << YAML::Value << s.warm_started;
   out << YAML::EndMap;
 
+  if (report.enthalpy) {
+    emit_number(out, "enthalpy_J", *report.enthalpy);
+  } else {
+    out << YAML::Key << "enthalpy_J" << YAML::Value << YAML::Null;
+    out << YAML::Key << "enthalpy_unavailable" << YAML::Value << report.enthalpy_unavailable;
+  }
+  if (!report.solids.empty()) {
+    out << YAML::Key << "solids" << YAML::Value << YAML::BeginMap;
+    for (std::size_t p = 0; p < report.solids.size(); ++p) {
+      out << YAML::Key << report.solids[p] << YAML::Value << YAML::BeginMap;
+      emit_number(out, "amount_mol", s.solid_amount[p]);
+      emit_number(out, "saturation_index", s.saturation_index[p]);
+      out << YAML::EndMap;
+    }
+    out << YAML::EndMap;
+  }
+  if (!report.open_gases.empty()) {
+    out << YAML::Key << "open_gases" << YAML::Value << YAML::BeginMap;
+    for (std::size_t g = 0; g < report.open_gases.size(); ++g) {
+      out << YAML::Key << report.open_gases[g] << YAML::Value << YAML::BeginMap;
+      emit_number(out, "uptake_mol", s.gas_uptake[g]);
+      out << YAML::EndMap;
+    }
+    out << YAML::EndMap;
+  }
+  if (!report.phase_gases.empty()) {
+    out << YAML::Key << "gas_phase" << YAML::Value << YAML::BeginMap;
+    out << YAML::Key << "present" << YAML::Value << s.gas_phase_present;
+    emit_number(out, "amount_mol", s.gas_phase_amount);
+    out << YAML::Key << "gases" << YAML::Value << YAML::BeginMap;
+    for (std::size_t g = 0; g < report.phase_gases.size(); ++g) {
+      out << YAML::Key << report.phase_gases[g] << YAML::Value << YAML::BeginMap;
+      emit_number(out, "amount_mol", s.gas_amount[g]);
+      emit_number(out, "partial_pressure_Pa", s.partial_pressure[g]);
+      out << YAML::EndMap;
+    }
+    out << YAML::EndMap << YAML::EndMap;
+  }
+
   out << YAML::Key << "warnings" << YAML::Value << YAML::BeginSeq;
   for (const std::string& warning : report.warnings) out << warning;
   out << YAML::EndSeq;
@@ -105,6 +144,18 @@ std::string to_table(const SpeciationReport& report) {
   const BalanceResidual* const worst = worst_mass_balance(report.closure);
   line("closure", fmt::format("charge {:.1e}, worst mass balance {:.1e} ({})", report.closure.charge,
                               worst ? worst->relative : 0.0, worst ? worst->quantity : "-"));
+  line("enthalpy", report.enthalpy ? fmt::format("{:.6e} J", *report.enthalpy) : "unavailable: " + report.enthalpy_unavailable);
+  for (std::size_t p = 0; p < report.solids.size(); ++p)
+    line(p == 0 ? "solids" : "", fmt::format("{:<16} {:>13.6e} mol  SI {:+.4f}", report.solids[p], s.solid_amount[p],
+                                             s.saturation_index[p]));
+  for (std::size_t g = 0; g < report.open_gases.size(); ++g)
+    line(g == 0 ? "open to" : "", fmt::format("{:<16} uptake {:+.6e} mol", report.open_gases[g], s.gas_uptake[g]));
+  if (!report.phase_gases.empty()) {
+    line("gas phase", s.gas_phase_present ? fmt::format("{:.6e} mol", s.gas_phase_amount) : std::string("none"));
+    for (std::size_t g = 0; g < report.phase_gases.size(); ++g)
+      line("", fmt::format("{:<16} {:>13.6e} mol  p {:.6e} Pa", report.phase_gases[g], s.gas_amount[g],
+                           s.partial_pressure[g]));
+  }
   for (const std::string& warning : report.warnings) line("WARNING", warning);
   text += "\n";
   text += fmt::format("{:<14}{:>7}{:>16}{:>14}{:>11}\n", "solute", "charge", "mol/kg", "activity", "log10 γ");

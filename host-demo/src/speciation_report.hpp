@@ -2,6 +2,7 @@
 // fixed-width table (for people). Field names and units: docs/solution-format.md.
 #pragma once
 
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -26,6 +27,11 @@ struct SpeciationReport {
   thermo::Speciation speciation;
   BalanceClosure closure;
   std::vector<std::string> warnings;  // model stretched beyond its range, and the like
+  std::optional<double> enthalpy;     // J, where the data give every present species' enthalpy
+  std::string enthalpy_unavailable;   // why not, otherwise
+  std::vector<std::string> solids;       // in the order of speciation.solid_amount
+  std::vector<std::string> open_gases;   // in the order of speciation.gas_uptake
+  std::vector<std::string> phase_gases;  // in the order of speciation.gas_amount
 };
 
 std::string to_yaml(const SpeciationReport& report);

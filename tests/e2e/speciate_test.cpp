@@ -2,6 +2,7 @@
 // host-demo/examples/, checked through what a user sees (stdout, stderr, exit code).
 #include <cmath>
 #include <filesystem>
+#include <fstream>
 #include <string>
 #include <vector>
 
@@ -259,4 +260,61 @@ TEST_CASE("a solution within the model's range has an empty warning list", "[spe
   const YAML::Node report = speciate_report(cases_directory / "hcl-0.01-davies.yaml");
   REQUIRE(report["warnings"]);
   CHECK(report["warnings"].size() == 0);
+}
+
+TEST_CASE("a solid allowed to form stays as much as saturation leaves", "[speciate][solids]") {
+  const YAML::Node report = speciate_report(cases_directory / "gypsum-in-water.yaml");
+  const YAML::Node gypsum = report["solids"]["gypsum"];
+  REQUIRE(gypsum);
+  CHECK(std::abs(number(gypsum["saturation_index"])) < 1e-8);
+  const double dissolved = number(report["solutes"]["Ca+2"]["molality_mol_per_kg"]) +
+                           number(report["solutes"]["CaSO4(aq)"]["molality_mol_per_kg"]);
+  // Gypsum's solubility in water at 25 °C is about 15 mmol/kg (CRC Handbook, aqueous solubility of
+  // inorganic compounds, 0.205 g CaSO4 per 100 g water ≈ 15.1 mmol/kg; from memory); Davies ±10 %.
+  CHECK(dissolved == Approx(0.0151).epsilon(0.10));
+  // What is not dissolved is solid: the ion pair and free ion in the solvent's own mass (which the
+  // dissolution itself enlarges by 2 H2O per formula), plus the traces of CaOH+.
+  const double water = number(report["water_mass_kg"]);
+  CHECK(number(gypsum["amount_mol"]) == Approx(0.1 - dissolved * water).epsilon(1e-6));
+  require_balances_close(report);
+}
+
+TEST_CASE("a solution open to a gas takes it up by Henry's law", "[speciate][gases]") {
+  const YAML::Node report = speciate_report(cases_directory / "water-open-to-co2.yaml");
+  // REFERENCE-VALUES.md: KH(CO2) = 0.0340 mol kg⁻¹ atm⁻¹ at 25 °C (Plummer & Busenberg 1982), ±2 %.
+  CHECK(number(report["solutes"]["CO2(aq)"]["molality_mol_per_kg"]) == Approx(0.0340).epsilon(0.02));
+  CHECK(number(report["open_gases"]["CO2(g)"]["uptake_mol"]) > 0.034);
+  require_balances_close(report);
+}
+
+TEST_CASE("a closed vessel forms a gas phase at its bubble point", "[speciate][gases]") {
+  const YAML::Node report = speciate_report(cases_directory / "acidified-bicarbonate.yaml");
+  const YAML::Node gas = report["gas_phase"];
+  REQUIRE(gas);
+  CHECK(gas["present"].as<bool>());
+  double total = 0.0;
+  for (const auto& g : gas["gases"]) total += number(g.second["partial_pressure_Pa"]);
+  CHECK(total == Approx(101325.0).epsilon(1e-9));  // the partial pressures make up the total pressure
+  // Water vapour over a 0.1 mol/kg solution: p_sat(25 °C) = 3.1699 kPa (IAPWS-95) times a_w ≈ 0.997.
+  CHECK(number(gas["gases"]["H2O(g)"]["partial_pressure_Pa"]) == Approx(3169.9 * number(report["water_activity"])).epsilon(1e-3));
+  require_balances_close(report);
+}
+
+TEST_CASE("given an enthalpy, speciate finds the temperature", "[speciate][energy]") {
+  const YAML::Node at_25 = speciate_report(cases_directory / "hcl-0.01-davies.yaml");
+  const double enthalpy = number(at_25["enthalpy_J"]);
+  const fs::path file = fs::temp_directory_path() / "protonflow-e2e-enthalpy.yaml";
+  {
+    std::ofstream out(file);
+    out << "solution:\n  enthalpy: " << fmt::format("{:.17g}", enthalpy) << " J\n  activity_model: davies\n"
+        << "  amounts_as: molality\n  components:\n    HCl: 0.01\n";
+  }
+  const YAML::Node found = speciate_report(file);
+  CHECK(number(found["temperature_K"]) == Approx(298.15).margin(1e-6));  // the energy round trip
+  CHECK(number(found["pH"]) == Approx(number(at_25["pH"])).margin(1e-8));
+}
+
+TEST_CASE("unknown solids and a doubly given temperature are rejected at their line", "[speciate][errors]") {
+  require_rejected("unknown-solid.yaml", 4, 29, {"unknown solid 'gypsm'", "gypsum"});
+  require_rejected("temperature-and-enthalpy.yaml", 3, 3, {"not both"});
 }
