@@ -14,6 +14,7 @@
 #include "protonflow/thermo/database.hpp"
 #include "protonflow/thermo/equilibrium_solver.hpp"
 #include "protonflow/thermo/errors.hpp"
+#include "protonflow/thermo/stream_enthalpy.hpp"
 
 using namespace protonflow::thermo;
 
@@ -118,6 +119,70 @@ void speciation_cold(benchmark::State& state) {
   }
 }
 BENCHMARK(speciation_cold)->Unit(benchmark::kMicrosecond);
+
+// The same system with calcite and gypsum allowed to precipitate and CO2 open to air (42 Pa, about
+// 415 ppm at 1 atm: the atmosphere's CO2 around 2021, NOAA Mauna Loa annual mean, from memory).
+ChemicalSystem system_with_phases() {
+  SystemOptions options;
+  options.activity = ActivityModelKind::davies;
+  options.secondary_species = {"OH-", "HSO4-", "HCO3-", "CO2(aq)", "NH3(aq)", "CaSO4(aq)", "NaSO4-", "CaCO3(aq)"};
+  options.allowed_solids = {"calcite", "gypsum"};
+  options.open_gases = {"CO2(g)"};
+  return ChemicalSystem(database(), {"H2O", "NaOH", "HCl", "H2SO4", "CO2", "NH3", "Ca(OH)2"}, options);
+}
+
+constexpr double air_co2 = 42.0;  // Pa
+
+void speciation_with_solids_and_air_10000_cases(benchmark::State& state) {
+  const ChemicalSystem system = system_with_phases();
+  EquilibriumSolver solver(system);
+  const auto cases = draw_cases(10000);
+  const std::vector<double> pressure{air_co2};
+  Speciation out;
+  for (auto _ : state) {
+    std::vector<double> cold_us, warm_us;
+    double converged = 0, with_solid = 0;
+    for (const auto& amounts : cases) {
+      auto nearby = amounts;
+      for (std::size_t c = 1; c < nearby.size(); ++c) nearby[c] *= 1.01;
+      try {
+        solver.reset_warm_start();
+        const auto t0 = std::chrono::steady_clock::now();
+        solver.solve(298.15, constants::standard_atmosphere, amounts, pressure, out);
+        const auto t1 = std::chrono::steady_clock::now();
+        solver.solve(298.15, constants::standard_atmosphere, nearby, pressure, out);
+        const auto t2 = std::chrono::steady_clock::now();
+        cold_us.push_back(std::chrono::duration<double, std::micro>(t1 - t0).count());
+        warm_us.push_back(std::chrono::duration<double, std::micro>(t2 - t1).count());
+        converged += 1;
+        with_solid += (out.solid_amount[0] > 0.0 || out.solid_amount[1] > 0.0) ? 1 : 0;
+      } catch (const ThermoError&) {
+        // counted as not converged
+      }
+    }
+    state.counters["cold_median_us"] = median(cold_us);
+    state.counters["warm_median_us"] = median(warm_us);
+    state.counters["converged_percent"] = 100.0 * converged / static_cast<double>(cases.size());
+    state.counters["with_a_solid_percent"] = 100.0 * with_solid / static_cast<double>(cases.size());
+  }
+}
+BENCHMARK(speciation_with_solids_and_air_10000_cases)->Iterations(1)->Unit(benchmark::kMillisecond);
+
+// The adiabatic problem: the temperature of a given enthalpy, each trial temperature a warm solve.
+void adiabatic_solve(benchmark::State& state) {
+  const ChemicalSystem system = system_with_phases();
+  EquilibriumSolver solver(system);
+  const auto amounts = draw_cases(1).front();
+  const std::vector<double> pressure{air_co2};
+  Speciation out;
+  solver.solve(318.15, constants::standard_atmosphere, amounts, pressure, out);
+  const double enthalpy = state_enthalpy(system, out);
+  for (auto _ : state) {
+    solve_at_enthalpy(solver, enthalpy, constants::standard_atmosphere, amounts, pressure, out);
+    benchmark::DoNotOptimize(out.temperature);
+  }
+}
+BENCHMARK(adiabatic_solve)->Unit(benchmark::kMicrosecond);
 
 }  // namespace
 
