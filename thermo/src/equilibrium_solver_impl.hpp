@@ -1,0 +1,131 @@
+// The equilibrium solver's private state and the pieces of its implementation, shared by
+// equilibrium_solver.cpp (set-up, KINSOL, results), equilibrium_equations.cpp (residual and
+// Jacobian), equilibrium_guess.cpp (cold start) and phase_set.cpp (which solids and gases exist).
+#pragma once
+
+#include <kinsol/kinsol.h>
+#include <nvector/nvector_serial.h>
+#include <sunmatrix/sunmatrix_dense.h>
+
+#include <algorithm>
+#include <cmath>
+#include <fmt/format.h>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "protonflow/thermo/equilibrium_solver.hpp"
+#include "protonflow/thermo/errors.hpp"
+
+namespace protonflow::thermo {
+
+namespace detail {
+
+inline constexpr double inactive_log_molality = -700.0;  // stands for m = 0 in rows of absent solutes
+inline constexpr double lowest_log = -700.0;
+inline constexpr double highest_log = 40.0;  // e^40 mol/kg: far above any solution, keeps exp() finite
+
+inline double safe_exp(double x) { return std::exp(std::clamp(x, lowest_log, highest_log)); }
+
+}  // namespace detail
+
+struct EquilibriumSolver::Impl {
+  explicit Impl(const ChemicalSystem& chemical_system, SolverOptions solver_options);
+  ~Impl();
+  Impl(const Impl&) = delete;
+  Impl& operator=(const Impl&) = delete;
+
+  void solve(double temperature, double pressure, std::span<const double> amounts,
+             std::span<const double> open_gas_pressures, Speciation& out);
+
+  // The system of equations, evaluated at u: residual F(u) and its Jacobian.
+  void evaluate_molalities(const double* u);
+  void residual(const double* u, double* f);
+  void jacobian(const double* u, SUNMatrix jacobian_matrix);
+  // ln of a solid's saturation ratio or a gas's p/p°: ln K + Σ_b ν_b ln a_b + ν_w ln a_w, and its
+  // gradient over the solute unknowns.
+  double phase_log_activity(const PhaseSpecies& p, double ln_k_phase) const;
+  void phase_log_activity_gradient(const PhaseSpecies& p, double* gradient) const;
+  // KINSOL's callbacks: the user data is this Impl.
+  static int residual_callback(N_Vector u, N_Vector f, void* user_data) {
+    static_cast<Impl*>(user_data)->residual(N_VGetArrayPointer(u), N_VGetArrayPointer(f));
+    return 0;
+  }
+  // KINSOL's messages go into the error we throw, never to stderr: a library does not print.
+  static void error_callback(int, const char*, const char* function, char* message, void* user_data) {
+    static_cast<Impl*>(user_data)->kinsol_message = fmt::format("{}: {}", function, message);
+  }
+  static int jacobian_callback(N_Vector u, N_Vector, SUNMatrix jacobian_matrix, void* user_data, N_Vector, N_Vector) {
+    static_cast<Impl*>(user_data)->jacobian(N_VGetArrayPointer(u), jacobian_matrix);
+    return 0;
+  }
+
+  void set_totals(std::span<const double> amounts, std::span<const double> open_gas_pressures);
+  bool settle_phases();
+  void predict_precipitation(std::size_t allowed_index);
+  void update_log_k(double temperature, double pressure);
+  void ideal_guess(double* u);  // for the current set of present phases
+  void guess_pass(double* u, double ln_water_activity);
+  bool solve_current_set();
+  bool replace_rival(std::size_t added);
+  int run_kinsol(int strategy);
+  int run_newton();
+  bool accepted(int flag);
+  double scaled_residual_norm();
+  std::vector<EquationResidual> residual_report();
+  void fill(Speciation& out, bool warm);
+
+  const ChemicalSystem* system;
+  SolverOptions options;
+  std::size_t n;      // solutes
+  std::size_t nb;     // basis solutes (index 0 is H+)
+  // Unknowns: [0, n) ln m_i; n: ln W; then one per allowed solid (n_p / s_p), one per open gas
+  // (uptake / ξ_s), one per gas of a closed phase (n_g / N_s) and the phase total (N / N_s).
+  std::size_t solid_offset, open_offset, phase_offset, phase_total_index, size;
+  std::vector<std::size_t> allowed;  // indices into system->solids() of the allowed solids
+  std::vector<double> charge, stoichiometry, water_coefficient, ln_k;
+  std::vector<double> ln_k_solid, ln_k_open, ln_k_phase;
+  std::vector<char> active, solid_active;
+  // The active set: which allowed solids are present, whether the closed gas phase is; and the sets
+  // already tried in this solve (flat, one row of allowed.size() + 1 flags each, capacity reserved).
+  std::vector<char> solid_present, previous_solid_present, tried_sets;
+  bool gas_phase_present = false, previous_gas_phase_present = false;
+  std::size_t maximum_rounds = 0;
+  std::vector<double> basis_total;  // mol
+  double water_total = 0.0;         // mol H2O as a component
+  double proton_total = 0.0;        // mol H+ from the tableau (for the cold start only)
+  std::vector<double> solid_scale;  // s_p, mol: the most of each allowed solid the totals allow
+  double uptake_scale = 1.0;        // ξ_s, mol: 1 mol per kg of the water present
+  double phase_scale = 1.0;         // N_s, mol: all the moles the system holds
+  std::vector<double> open_log_pressure;  // ln(p_g / p°) of each open gas
+  double temperature = 0.0, pressure = 0.0, log_k_temperature = -1.0;
+  std::unique_ptr<ActivityModel> activity;
+  ActivityEvaluation evaluation;
+  std::vector<double> molality;
+  double water_mass = 0.0;
+  std::vector<double> before_addition;  // u before the latest solid was added
+  std::vector<double> newton_start;    // u before a Newton solve, for the full-step retry
+  std::vector<double> guess_ln_gamma, conditional_ln_k;  // the guess's activity corrections
+  std::vector<double> shift_by_basis;  // ln of the fraction of each basis species a precipitation leaves
+  std::vector<double> guess_x, guess_totals, guess_stoichiometry, guess_ln_k, previous_u, gradient;
+  std::vector<char> guess_active, previous_active;
+  bool has_previous = false;
+  int last_flag = 0;
+  std::string kinsol_message;
+  std::vector<double> evaluated_at;  // the u of the current molalities and activity evaluation
+  bool evaluation_valid = false;
+  // Non-zero stoichiometry of each solute, so the Jacobian skips the zeros of a sparse tableau.
+  struct Term {
+    std::size_t basis;
+    double coefficient;
+  };
+  std::vector<std::vector<Term>> terms;
+
+  SUNContext context = nullptr;
+  void* kinsol = nullptr;
+  N_Vector u = nullptr, u_scale = nullptr, f_scale = nullptr, f_work = nullptr;
+  SUNMatrix jacobian_matrix = nullptr;
+  SUNLinearSolver linear_solver = nullptr;
+};
+
+}  // namespace protonflow::thermo
