@@ -11,27 +11,10 @@
 
 #include <protonflow/unit_abi.h>
 
-extern "C" void* __libc_malloc(std::size_t size);  // glibc's own allocator entry points
-extern "C" void* __libc_calloc(std::size_t count, std::size_t size);
-extern "C" void* __libc_realloc(void* pointer, std::size_t size);
+#include "../support/malloc_counter.hpp"
 
-namespace {
-bool counting = false;
-long allocations = 0;
-}  // namespace
-
-extern "C" void* malloc(std::size_t size) {
-  if (counting) ++allocations;
-  return __libc_malloc(size);
-}
-extern "C" void* calloc(std::size_t count, std::size_t size) {
-  if (counting) ++allocations;
-  return __libc_calloc(count, size);
-}
-extern "C" void* realloc(void* pointer, std::size_t size) {
-  if (counting) ++allocations;
-  return __libc_realloc(pointer, size);
-}
+using protonflow::test_support::allocations;
+using protonflow::test_support::counting_allocations;
 
 int main() {
   void* library = dlopen(ABI_GOOD_MODULE, RTLD_NOW | RTLD_LOCAL);
@@ -77,12 +60,12 @@ int main() {
                         message.data(), message.size());
   };
   pfu_status status = solve();  // cold: sizes the instance's scratch
-  counting = true;
+  counting_allocations = true;
   for (int i = 0; i < 100 && status == PFU_OK; ++i) {
     feed_2[1] = 1e-4 * i;  // a nearby state, as in a recycle iteration
     status = solve();
   }
-  counting = false;
+  counting_allocations = false;
   if (status != PFU_OK) {
     std::printf("FAILED: %s: %s\n", pfu_status_name(status), message.data());
     return 1;

@@ -46,23 +46,27 @@ rc::Gen<double> log_uniform_molality() {
   return rc::gen::map(rc::gen::inRange(0, 1000001), [](int k) { return std::pow(10.0, -6.0 + 6.4771212547 * k / 1e6); });
 }
 
-// rapidcheck scales ranges with its size parameter; at the full size (100) the draws are uniform,
-// so concentrated cases are as likely as dilute ones from the first test on.
-rc::Gen<Case> random_case() {
+// A case from a pool of components: up to four distinct ones, molalities log-uniform, a model, a
+// temperature across the system's range. rapidcheck scales ranges with its size parameter; at the
+// full size (100) the draws are uniform, so concentrated cases are as likely as dilute ones from
+// the first test on.
+rc::Gen<Case> random_case_from(const std::vector<std::string>& pool) {
   return rc::gen::resize(100, rc::gen::apply(
-      [](int t, int model, std::vector<int> picks, std::vector<double> molalities) {
+      [&pool](int t, int model, std::vector<int> picks, std::vector<double> molalities) {
         Case c{t / 10000.0, static_cast<ActivityModelKind>(model), {}};
         for (std::size_t i = 0; i < picks.size(); ++i) {
-          const std::string& name = component_pool[static_cast<std::size_t>(picks[i])];
+          const std::string& name = pool[static_cast<std::size_t>(picks[i])];
           const bool seen = std::any_of(c.recipe.begin(), c.recipe.end(), [&](const auto& r) { return r.first == name; });
           if (!seen) c.recipe.emplace_back(name, molalities[i]);
         }
         return c;
       },
       rc::gen::inRange(0, 10001), rc::gen::inRange(0, 3),
-      rc::gen::container<std::vector<int>>(4, rc::gen::inRange(0, static_cast<int>(component_pool.size()))),
+      rc::gen::container<std::vector<int>>(4, rc::gen::inRange(0, static_cast<int>(pool.size()))),
       rc::gen::container<std::vector<double>>(4, log_uniform_molality())));
 }
+
+rc::Gen<Case> random_case() { return random_case_from(component_pool); }
 
 // Some systems' data stop short of 100 °C (calcium carbonate ion pairs at 90 °C): cases sweep each
 // system's own range, and the range check itself is asserted below.
@@ -235,21 +239,7 @@ const std::vector<std::string> solid_pool{
     "CaCl2", "Ca(OH)2", "CaCO3", "CaSO4:2H2O", "MgCl2", "MgSO4", "NaF",   "AlCl3", "Al2(SO4)3", "FeCl3",
     "ZnSO4", "CuSO4",   "NiCl2", "H2SO4",      "HCl",   "NaOH",  "Na2CO3", "CO2",  "H3PO4",     "NH3"};
 
-rc::Gen<Case> random_solid_case() {
-  return rc::gen::resize(100, rc::gen::apply(
-      [](int t, int model, std::vector<int> picks, std::vector<double> molalities) {
-        Case c{t / 10000.0, static_cast<ActivityModelKind>(model), {}};
-        for (std::size_t i = 0; i < picks.size(); ++i) {
-          const std::string& name = solid_pool[static_cast<std::size_t>(picks[i])];
-          const bool seen = std::any_of(c.recipe.begin(), c.recipe.end(), [&](const auto& r) { return r.first == name; });
-          if (!seen) c.recipe.emplace_back(name, molalities[i]);
-        }
-        return c;
-      },
-      rc::gen::inRange(0, 10001), rc::gen::inRange(0, 3),
-      rc::gen::container<std::vector<int>>(4, rc::gen::inRange(0, static_cast<int>(solid_pool.size()))),
-      rc::gen::container<std::vector<double>>(4, log_uniform_molality())));
-}
+rc::Gen<Case> random_solid_case() { return random_case_from(solid_pool); }
 
 // Every solid the slate reaches is allowed to precipitate.
 Solved solve_with_solids(const Case& c) {
@@ -289,21 +279,7 @@ namespace {
 const std::vector<std::string> gas_pool{"NaHCO3", "Na2CO3", "CO2", "NaHS", "H2S", "NH4Cl", "NH3", "Na2SO3", "SO2",
                                         "HCl",    "H2SO4",  "NaOH", "NaF", "CaCl2", "Ca(OH)2", "CaCO3", "NaCl"};
 
-rc::Gen<Case> random_gas_case() {
-  return rc::gen::resize(100, rc::gen::apply(
-      [](int t, int model, std::vector<int> picks, std::vector<double> molalities) {
-        Case c{t / 10000.0, static_cast<ActivityModelKind>(model), {}};
-        for (std::size_t i = 0; i < picks.size(); ++i) {
-          const std::string& name = gas_pool[static_cast<std::size_t>(picks[i])];
-          const bool seen = std::any_of(c.recipe.begin(), c.recipe.end(), [&](const auto& r) { return r.first == name; });
-          if (!seen) c.recipe.emplace_back(name, molalities[i]);
-        }
-        return c;
-      },
-      rc::gen::inRange(0, 10001), rc::gen::inRange(0, 3),
-      rc::gen::container<std::vector<int>>(4, rc::gen::inRange(0, static_cast<int>(gas_pool.size()))),
-      rc::gen::container<std::vector<double>>(4, log_uniform_molality())));
-}
+rc::Gen<Case> random_gas_case() { return random_case_from(gas_pool); }
 
 // 2 atm: water stays liquid up to 100 °C (p_sat(100 °C) = 1.01 atm), so a gas phase, where one
 // forms, holds the volatile solutes and vapour but never the whole solvent.

@@ -9,6 +9,21 @@
 
 namespace protonflow::reference {
 
+namespace {
+
+// The slate and amounts of a recipe on 1 kg of water.
+std::pair<std::vector<std::string>, std::vector<double>> slate_of(const Recipe& recipe) {
+  std::vector<std::string> components{"H2O"};
+  std::vector<double> amounts{1.0 / thermo::constants::water_molar_mass};  // 1 kg of water
+  for (const auto& [component, molality] : recipe) {
+    components.push_back(component);
+    amounts.push_back(molality);
+  }
+  return {components, amounts};
+}
+
+}  // namespace
+
 const thermo::Database& bundled_database() {
   static const thermo::Database database = thermo::load_database(thermo::default_data_directory());
   return database;
@@ -39,12 +54,7 @@ ProbeResult solve_recipe(const Recipe& recipe, thermo::ActivityModelKind model, 
 
 ProbeResult solve_open_to(const Recipe& recipe, const std::string& gas, double partial_pressure,
                           thermo::ActivityModelKind model) {
-  std::vector<std::string> components{"H2O"};
-  std::vector<double> amounts{1.0 / thermo::constants::water_molar_mass};
-  for (const auto& [component, molality] : recipe) {
-    components.push_back(component);
-    amounts.push_back(molality);
-  }
+  const auto [components, amounts] = slate_of(recipe);
   thermo::SystemOptions options;
   options.activity = model;
   options.open_gases = {gas};
@@ -56,12 +66,7 @@ ProbeResult solve_open_to(const Recipe& recipe, const std::string& gas, double p
 }
 
 double equilibrium_partial_pressure(const Recipe& recipe, const std::string& gas, thermo::ActivityModelKind model) {
-  std::vector<std::string> components{"H2O"};
-  std::vector<double> amounts{1.0 / thermo::constants::water_molar_mass};
-  for (const auto& [component, molality] : recipe) {
-    components.push_back(component);
-    amounts.push_back(molality);
-  }
+  const auto [components, amounts] = slate_of(recipe);
   thermo::SystemOptions options;
   options.activity = model;
   options.gas_phase = true;

@@ -55,8 +55,8 @@ TEST_CASE("an enthalpy beyond the data's temperature range is a typed error") {
   const Speciation state = solver.solve(298.15, 101325.0, amounts);
   const double h = state_enthalpy(system, state);
   Speciation out;
-  CHECK_THROWS_WITH(solve_at_enthalpy(solver, h + 5e5, 101325.0, amounts, {}, out), Catch::Contains("above the data's range"));
-  CHECK_THROWS_WITH(solve_at_enthalpy(solver, h - 5e5, 101325.0, amounts, {}, out), Catch::Contains("below the data's range"));
+  CHECK_THROWS_WITH(solve_at_enthalpy(solver, h + 5e5, 101325.0, amounts, {}, out), Catch::Contains("above the temperatures where it exists"));
+  CHECK_THROWS_WITH(solve_at_enthalpy(solver, h - 5e5, 101325.0, amounts, {}, out), Catch::Contains("below the temperatures where it exists"));
 }
 
 TEST_CASE("a present species without enthalpy data is named, not guessed") {
@@ -65,4 +65,26 @@ TEST_CASE("a present species without enthalpy data is named, not guessed") {
   EquilibriumSolver solver(system);
   const Speciation state = solver.solve(298.15, 101325.0, std::vector<double>{kilogram_of_water, 0.01});
   CHECK_THROWS_WITH(state_enthalpy(system, state), Catch::Contains("no formation enthalpy"));
+}
+
+TEST_CASE("near boiling, the adiabatic solve brackets the temperatures where a liquid exists") {
+  // Pure water at 1 atm boils at 373.12 K (IAPWS-95), just below the data's 373.15 K: the top of
+  // the range has no liquid in a closed vessel, yet 99 °C must still be found.
+  SystemOptions options;
+  options.gas_phase = true;
+  const ChemicalSystem system(database(), {"H2O", "NaCl"}, options);
+  EquilibriumSolver solver(system);
+  const std::vector<double> amounts{kilogram_of_water, 0.001};
+  const Speciation at_99 = solver.solve(372.15, 101325.0, amounts);
+  const double h = state_enthalpy(system, at_99);
+  Speciation found;
+  solve_at_enthalpy(solver, h, 101325.0, amounts, {}, found);
+  CHECK(found.temperature == Approx(372.15).margin(1e-6));
+  // 1 MJ more boils off part of the water at the boiling point (latent heat 2.26 MJ/kg, IAPWS-95,
+  // from memory); 3 MJ more than the whole kilogram can take as a liquid-bearing state.
+  solve_at_enthalpy(solver, h + 1e6, 101325.0, amounts, {}, found);
+  CHECK(found.gas_phase_present);
+  CHECK(found.temperature == Approx(373.12).margin(0.05));
+  CHECK(found.water_mass < 0.7);
+  CHECK_THROWS_WITH(solve_at_enthalpy(solver, h + 3e6, 101325.0, amounts, {}, found), Catch::Contains("boils"));
 }

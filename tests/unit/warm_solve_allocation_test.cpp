@@ -8,27 +8,10 @@
 #include "protonflow/thermo/database.hpp"
 #include "protonflow/thermo/equilibrium_solver.hpp"
 
-extern "C" void* __libc_malloc(std::size_t size);  // glibc's own allocator entry points
-extern "C" void* __libc_calloc(std::size_t count, std::size_t size);
-extern "C" void* __libc_realloc(void* pointer, std::size_t size);
+#include "../support/malloc_counter.hpp"
 
-namespace {
-bool counting = false;
-long allocations = 0;
-}  // namespace
-
-extern "C" void* malloc(std::size_t size) {
-  if (counting) ++allocations;
-  return __libc_malloc(size);
-}
-extern "C" void* calloc(std::size_t count, std::size_t size) {
-  if (counting) ++allocations;
-  return __libc_calloc(count, size);
-}
-extern "C" void* realloc(void* pointer, std::size_t size) {
-  if (counting) ++allocations;
-  return __libc_realloc(pointer, size);
-}
+using protonflow::test_support::allocations;
+using protonflow::test_support::counting_allocations;
 
 int main() {
   using namespace protonflow::thermo;
@@ -39,9 +22,9 @@ int main() {
   Speciation out;
   solver.solve(298.15, 101325.0, amounts, out);  // cold: sizes every buffer
   amounts[2] *= 1.01;                            // a nearby state, as in a flowsheet iteration
-  counting = true;
+  counting_allocations = true;
   solver.solve(298.15, 101325.0, amounts, out);
-  counting = false;
+  counting_allocations = false;
   if (!out.warm_started) {
     std::puts("FAILED: the second solve did not warm-start");
     return 1;

@@ -49,14 +49,42 @@ void solve_at_enthalpy(EquilibriumSolver& solver, double enthalpy, double pressu
     solver.solve(t, pressure, amounts, open_gas_pressures, out);
     return state_enthalpy(system, out, excess) - enthalpy;
   };
+  // The bracket is the data's range, narrowed where the state cannot exist at an end: pure water at
+  // 1 atm boils at 373.12 K, below the data's 373.15 K, and a closed system then has no liquid. The
+  // failing end is moved to the last temperature, found by bisection to 1e-6 K, where a state solves.
   double low = system.minimum_temperature(), high = system.maximum_temperature();
-  const double at_low = mismatch(low), at_high = mismatch(high);
+  const auto solves_at = [&](double t) {
+    try {
+      solver.solve(t, pressure, amounts, open_gas_pressures, out);
+      return true;
+    } catch (const ConvergenceError&) {
+      return false;
+    }
+  };
+  const auto mismatch_inward = [&](double& end, double towards) {
+    if (solves_at(end)) return mismatch(end);
+    if (!solves_at(towards))
+      throw ThermoError(ErrorKind::out_of_range,
+                        fmt::format("no equilibrium state of these amounts exists at either end of {:.2f}–{:.2f} K at "
+                                    "{:.6g} Pa",
+                                    std::min(end, towards), std::max(end, towards), pressure));
+    double good = towards, failing = end;
+    while (std::abs(failing - good) > 1e-6) {
+      const double middle = 0.5 * (good + failing);
+      (solves_at(middle) ? good : failing) = middle;
+    }
+    end = good;
+    return mismatch(end);
+  };
+  const double at_high = mismatch_inward(high, low);
+  const double at_low = mismatch_inward(low, high);
   if (at_low > 0.0 || at_high < 0.0)
     throw ThermoError(ErrorKind::out_of_range,
-                      fmt::format("an enthalpy of {:.6g} J puts this state {} the data's range {:.2f}–{:.2f} K "
-                                  "(it would need {:+.4g} J more to reach {:.2f} K)",
-                                  enthalpy, at_low > 0.0 ? "below" : "above", low, high,
-                                  at_low > 0.0 ? at_low : at_high, at_low > 0.0 ? low : high));
+                      fmt::format("an enthalpy of {:.6g} J puts this state {} the temperatures where it exists here, "
+                                  "{:.2f}–{:.2f} K (it would need {:+.4g} J more to reach {:.2f} K){}",
+                                  enthalpy, at_low > 0.0 ? "below" : "above", low, high, at_low > 0.0 ? at_low : at_high,
+                                  at_low > 0.0 ? low : high,
+                                  high < system.maximum_temperature() ? "; above that the liquid boils away at this pressure" : ""));
   // TOMS 748 (Alefeld, Potra & Shi 1995) until the bracket is 1e-9 K wide.
   std::uintmax_t iterations = 100;
   const auto [a, b] = boost::math::tools::toms748_solve(
