@@ -94,6 +94,10 @@ TEST_CASE("a module built against an older minor version loads, read as that ver
   CHECK(unit->parameters[1].kind == host::ParameterKind::text);
   CHECK(unit->parameters[1].default_text == "none");
   CHECK(unit->parameters[1].choices.empty());
+  // Its ports end before 1.2's flags: they read as required ports.
+  REQUIRE(unit->ports.size() == 2);
+  CHECK_FALSE(unit->ports[0].optional);
+  CHECK_FALSE(unit->ports[1].optional);
 
   auto instance = module.create("old_copy", std::vector<host::ParameterValue>{{"pressure_drop", 500.0}, {"note", "old"}},
                                 test_slate());

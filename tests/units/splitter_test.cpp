@@ -67,6 +67,8 @@ TEST_CASE("splitter: the module sits in the host's built-in directory and descri
   CHECK(info->ports[1].name == "outlet_1");
   CHECK(info->ports[8].name == "outlet_8");
   for (const auto& port : info->ports) CHECK(port.phases == (PFU_PHASE_AQUEOUS | PFU_PHASE_GAS | PFU_PHASE_SOLID));
+  // The feed and the first two branches must be connected; the other six may stay unconnected (ABI 1.2).
+  for (std::size_t p = 0; p < info->ports.size(); ++p) CHECK(info->ports[p].optional == (p >= 3));
 
   const auto parameter = [&](const std::string& name) {
     const auto found = std::ranges::find(info->parameters, name, &host::ParameterInfo::name);

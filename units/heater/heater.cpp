@@ -17,7 +17,6 @@
 #include <protonflow/thermo/stream_enthalpy.hpp>
 
 #include <Eigen/Dense>
-#include <boost/math/tools/roots.hpp>
 
 #include <algorithm>
 #include <array>
@@ -52,7 +51,7 @@ constexpr double corrosive_ph_high = 12.0;
 constexpr std::size_t max_combination = 3;
 
 // by_duty: the outlet temperature is accepted when the enthalpy it gives matches H_in + Q within
-// this many kelvin times the stream's heat capacity. TOMS 748 brackets T to 1e-9 K
+// this many kelvin times the stream's heat capacity. The engine brackets T to 1e-9 K by TOMS 748
 // (thermo/src/stream_enthalpy.cpp); the polish below usually takes it to the round-off of H.
 constexpr double duty_match_kelvin = 1e-6;
 
@@ -337,7 +336,7 @@ class Heater {
              PFU_INVALID_PARAMETER);
       }
     } else {
-      h_out = solve_by_duty(feed.temperature, h_in, outlet_pressure);
+      h_out = solve_by_duty(h_in, outlet_pressure);
     }
     const double duty = h_out - h_in;
 
@@ -363,21 +362,14 @@ class Heater {
   }
 
   // by_duty: the product temperature whose equilibrium enthalpy is H_in + Q, by the engine's
-  // thermo::solve_at_enthalpy. That one first solves at both ends of the data's temperature range;
-  // where an end cannot be solved (pure water at 1 atm boils at 373.12 K, below the data's
-  // 373.15 K, and the closed gas phase cannot take all the water) it fails although the answer
-  // lies well inside, so the heater then brackets from the feed temperature outward instead
-  // (bracket_from_feed). A few secant steps finally take H_out − H_in to Q within round-off where
-  // H is smooth in T. Returns H_out of product_state_.
-  double solve_by_duty(double feed_temperature, double h_in, double pressure) {
+  // thermo::solve_at_enthalpy (which brackets only the temperatures where a liquid state exists:
+  // a duty that would boil the liquor away is an out-of-range error). A few secant steps then take
+  // H_out − H_in to Q within round-off where H is smooth in T. Returns H_out of product_state_.
+  double solve_by_duty(double h_in, double pressure) {
     const double target = h_in + duty_;
     const std::string what = "finding the product temperature for a duty of " + number_text(duty_) + " W";
     try {
-      try {
-        thermo::solve_at_enthalpy(*product_solver_, target, pressure, totals_, {}, product_state_);
-      } catch (const thermo::ConvergenceError& engine_failure) {
-        bracket_from_feed(feed_temperature, pressure, target, what, engine_failure);
-      }
+      thermo::solve_at_enthalpy(*product_solver_, target, pressure, totals_, {}, product_state_);
       const double low = system_->minimum_temperature();
       const double high = system_->maximum_temperature();
       double best_t = product_state_.temperature;
@@ -407,63 +399,6 @@ class Heater {
     } catch (const thermo::ThermoError& error) {
       fail(error, what, PFU_INVALID_PARAMETER);
     }
-  }
-
-  // The fallback of solve_by_duty: march from the feed temperature toward the answer with steps
-  // from the stream's heat capacity, halving a step whose speciation fails, until H − target
-  // changes sign; then TOMS 748 (Alefeld, Potra & Shi 1995, Boost.Math) on that bracket to
-  // 1e-9 K, as the engine does. Leaves the answer in product_state_.
-  void bracket_from_feed(double feed_temperature, double pressure, double target, const std::string& what,
-                         const thermo::ConvergenceError& engine_failure) {
-    const double low = system_->minimum_temperature();
-    const double high = system_->maximum_temperature();
-    double a = std::clamp(feed_temperature, low, high);
-    double fa = mismatch_at(a, pressure, target);
-    if (fa == 0.0) return;
-    const double direction = fa < 0.0 ? 1.0 : -1.0;
-    const double edge = direction > 0.0 ? high : low;
-    double step = 1.0;  // K
-    double b = a;
-    double fb = fa;
-    std::string last_failure = engine_failure.what();
-    while (true) {
-      const double next = std::clamp(a + direction * step, low, high);
-      if (next == a) {
-        throw unit::UnitError(PFU_INVALID_PARAMETER,
-                              "unit 'heater': " + what + ": the product would lie " + (direction > 0.0 ? "above" : "below") +
-                                  " the species data's range " + number_text(low, 6) + "–" + number_text(high, 6) +
-                                  " K (at " + number_text(edge, 6) + " K it still needs " + number_text(-fa, 4) + " W " +
-                                  (direction > 0.0 ? "more" : "less") + ")");
-      }
-      try {
-        fb = mismatch_at(next, pressure, target);
-      } catch (const thermo::ConvergenceError& failure) {
-        last_failure = failure.what();
-        step *= 0.5;
-        if (step < 1e-6) {
-          throw unit::UnitError(
-              PFU_NOT_CONVERGED,
-              "unit 'heater': " + what + ": the product cannot be solved beyond " + number_text(a, 8) + " K, where it still needs " +
-                  number_text(-fa, 4) + " W " + (direction > 0.0 ? "more" : "less") +
-                  " (at fixed pressure the liquid would boil away, which the engine's closed gas phase cannot hold); "
-                  "the engine says: " + last_failure);
-        }
-        continue;
-      }
-      b = next;
-      if ((fb > 0.0) != (fa > 0.0) || fb == 0.0) break;
-      const double slope = (fb - fa) / (b - a);
-      a = b;
-      fa = fb;
-      step = slope > 0.0 ? std::clamp(1.05 * std::abs(fa) / slope, 1e-6, 50.0) : 2.0 * step;
-    }
-    if (fb == 0.0) return;
-    const auto f = [&](double t) { return mismatch_at(t, pressure, target); };
-    std::uintmax_t iterations = 100;
-    const auto [lo, hi] = boost::math::tools::toms748_solve(
-        f, std::min(a, b), std::max(a, b), a < b ? fa : fb, a < b ? fb : fa,
-        [](double x, double y) { return std::abs(y - x) < 1e-9; }, iterations);
-    mismatch_at(0.5 * (lo + hi), pressure, target);
   }
 
   // Writes the product's flows from product_state_: solids and gas as the equilibrium has them,

@@ -1,7 +1,8 @@
 // splitter: one feed divided among 2 to 8 outlets, every phase and every component in the same
 // proportion, temperature and pressure unchanged. Equations and limits: docs/units.md.
 //
-// The ABI fixes a class's ports, so the class declares eight outlets; `outlets` says how many
+// The ABI fixes a class's ports, so the class declares eight outlets, the last six optional (ABI
+// 1.2): a flowsheet connects only those it uses; `outlets` says how many
 // are used, and the unused ones carry zero flow at the feed's temperature and pressure.
 #include <protonflow/unit_module.hpp>
 
@@ -42,12 +43,12 @@ class Splitter {
       unit::inlet("feed", all_phases, "the stream to divide, any phases"),
       unit::outlet("outlet_1", all_phases, "first branch"),
       unit::outlet("outlet_2", all_phases, "second branch"),
-      unit::outlet("outlet_3", all_phases, "third branch; zero flow unless outlets >= 3"),
-      unit::outlet("outlet_4", all_phases, "fourth branch; zero flow unless outlets >= 4"),
-      unit::outlet("outlet_5", all_phases, "fifth branch; zero flow unless outlets >= 5"),
-      unit::outlet("outlet_6", all_phases, "sixth branch; zero flow unless outlets >= 6"),
-      unit::outlet("outlet_7", all_phases, "seventh branch; zero flow unless outlets >= 7"),
-      unit::outlet("outlet_8", all_phases, "eighth branch; zero flow unless outlets = 8")};
+      unit::outlet("outlet_3", all_phases, "third branch; zero flow unless outlets >= 3; may stay unconnected", PFU_PORT_OPTIONAL),
+      unit::outlet("outlet_4", all_phases, "fourth branch; zero flow unless outlets >= 4; may stay unconnected", PFU_PORT_OPTIONAL),
+      unit::outlet("outlet_5", all_phases, "fifth branch; zero flow unless outlets >= 5; may stay unconnected", PFU_PORT_OPTIONAL),
+      unit::outlet("outlet_6", all_phases, "sixth branch; zero flow unless outlets >= 6; may stay unconnected", PFU_PORT_OPTIONAL),
+      unit::outlet("outlet_7", all_phases, "seventh branch; zero flow unless outlets >= 7; may stay unconnected", PFU_PORT_OPTIONAL),
+      unit::outlet("outlet_8", all_phases, "eighth branch; zero flow unless outlets = 8; may stay unconnected", PFU_PORT_OPTIONAL)};
   static constexpr std::array<const char*, 2> split_modes{"fractions", "flows"};
   static constexpr std::array parameters{
       unit::number("outlets", "1", 2.0, 2.0, 8.0, "number of outlets used, a whole number from 2 to 8"),

@@ -21,7 +21,7 @@ extern "C" {
 
 /* Version of this header. A host loads a module whose major equals its own, whatever its minor:
  * a minor only appends fields at the ends of structs, so each side reads the fields both know. */
-enum { PFU_ABI_MAJOR = 1, PFU_ABI_MINOR = 1 };
+enum { PFU_ABI_MAJOR = 1, PFU_ABI_MINOR = 2 };
 
 /* Opens every struct, so a reader can check the version and the size before reading further. */
 typedef struct pfu_header {
@@ -52,6 +52,11 @@ enum { PFU_AQUEOUS_ROW = 0, PFU_GAS_ROW = 1, PFU_FIRST_SOLID_ROW = 2 };
 /* Port direction. */
 enum { PFU_INLET = 1, PFU_OUTLET = 2 };
 
+/* Port flags (since 1.2). An optional port may be left unconnected: the host then passes an
+ * optional inlet with no flow, and refuses a solve that puts flow into an unconnected optional
+ * outlet (nothing may be lost). */
+enum { PFU_PORT_OPTIONAL = 1 };
+
 /* Parameter kinds. A choice is a text restricted to a published list (since 1.1). */
 enum { PFU_NUMBER = 1, PFU_TEXT = 2, PFU_CHOICE = 3 };
 
@@ -62,6 +67,8 @@ typedef struct pfu_port {
   const char* meaning; /* one line */
   uint32_t direction;  /* PFU_INLET or PFU_OUTLET */
   uint32_t phases;     /* PFU_PHASE_* bits: phases an inlet accepts, or an outlet may carry */
+  /* since 1.2 */
+  uint32_t flags;      /* PFU_PORT_* bits */
 } pfu_port;
 
 /* A parameter a unit accepts at create. Bounds are inclusive; a number in SI units only. */

@@ -63,6 +63,7 @@ struct PortInfo {
   std::string meaning;
   bool inlet;
   std::uint32_t phases;  // PFU_PHASE_* bits
+  bool optional = false; // may be left unconnected (ABI 1.2; false for older modules)
 };
 
 struct ParameterInfo {
@@ -143,6 +144,9 @@ constexpr std::size_t minimum_size(unsigned minor) {
   if constexpr (std::is_same_v<T, pfu_parameter>) {
     if (minor < 1) return offsetof(pfu_parameter, choice_count);
   }
+  if constexpr (std::is_same_v<T, pfu_port>) {
+    if (minor < 2) return offsetof(pfu_port, flags);
+  }
   return sizeof(T);
 }
 
@@ -194,7 +198,8 @@ inline std::string required_text(const char* text, const std::string& file, cons
 }
 
 inline PortInfo read_port(const pfu_port& port, const std::string& file, const std::string& where) {
-  PortInfo info{required_text(port.name, file, where + " port name"), "", port.direction == PFU_INLET, port.phases};
+  PortInfo info{required_text(port.name, file, where + " port name"), "", port.direction == PFU_INLET, port.phases,
+                (port.flags & PFU_PORT_OPTIONAL) != 0};
   const std::string what = where + " port '" + info.name + "'";
   info.meaning = required_text(port.meaning, file, what + " meaning");
   if (port.direction != PFU_INLET && port.direction != PFU_OUTLET) {

@@ -63,11 +63,11 @@ constexpr pfu_header header_for() {
 }
 
 // Port, parameter and result declarations, for the static arrays of a unit class.
-constexpr pfu_port inlet(const char* name, std::uint32_t phases, const char* meaning) {
-  return {header_for<pfu_port>(), name, meaning, PFU_INLET, phases};
+constexpr pfu_port inlet(const char* name, std::uint32_t phases, const char* meaning, std::uint32_t flags = 0) {
+  return {header_for<pfu_port>(), name, meaning, PFU_INLET, phases, flags};
 }
-constexpr pfu_port outlet(const char* name, std::uint32_t phases, const char* meaning) {
-  return {header_for<pfu_port>(), name, meaning, PFU_OUTLET, phases};
+constexpr pfu_port outlet(const char* name, std::uint32_t phases, const char* meaning, std::uint32_t flags = 0) {
+  return {header_for<pfu_port>(), name, meaning, PFU_OUTLET, phases, flags};
 }
 constexpr pfu_parameter number(const char* name, const char* unit, double default_value, double lower, double upper,
                                const char* meaning) {

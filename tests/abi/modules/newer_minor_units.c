@@ -28,8 +28,8 @@ typedef struct future_module {
 #define FUTURE_HEADER(type) {PFU_ABI_MAJOR, PFU_ABI_MINOR + 1, sizeof(type)}
 
 static const future_port ports[] = {
-    {{FUTURE_HEADER(future_port), "feed", "stream in", PFU_INLET, PFU_PHASE_AQUEOUS}, 1.0},
-    {{FUTURE_HEADER(future_port), "product", "the same stream out", PFU_OUTLET, PFU_PHASE_AQUEOUS}, 2.0},
+    {{FUTURE_HEADER(future_port), "feed", "stream in", PFU_INLET, PFU_PHASE_AQUEOUS, 0}, 1.0},
+    {{FUTURE_HEADER(future_port), "product", "the same stream out", PFU_OUTLET, PFU_PHASE_AQUEOUS, 0}, 2.0},
 };
 
 static const char* const note_choices[] = {"none", "some"};

@@ -5,6 +5,15 @@
 
 #include <math.h>
 
+/* pfu_port as ABI 1.0 and 1.1 laid it out, before flags. */
+typedef struct port_1_0 {
+  pfu_header header;
+  const char* name;
+  const char* meaning;
+  uint32_t direction;
+  uint32_t phases;
+} port_1_0;
+
 /* pfu_parameter as ABI 1.0 laid it out. */
 typedef struct parameter_1_0 {
   pfu_header header;
@@ -20,9 +29,9 @@ typedef struct parameter_1_0 {
 
 #define HEADER_1_0(type) {PFU_ABI_MAJOR, 0, sizeof(type)}
 
-static const pfu_port ports[] = {
-    {HEADER_1_0(pfu_port), "feed", "stream in", PFU_INLET, PFU_PHASE_AQUEOUS | PFU_PHASE_GAS | PFU_PHASE_SOLID},
-    {HEADER_1_0(pfu_port), "product", "the same stream out", PFU_OUTLET, PFU_PHASE_AQUEOUS | PFU_PHASE_GAS | PFU_PHASE_SOLID},
+static const port_1_0 ports[] = {
+    {HEADER_1_0(port_1_0), "feed", "stream in", PFU_INLET, PFU_PHASE_AQUEOUS | PFU_PHASE_GAS | PFU_PHASE_SOLID},
+    {HEADER_1_0(port_1_0), "product", "the same stream out", PFU_OUTLET, PFU_PHASE_AQUEOUS | PFU_PHASE_GAS | PFU_PHASE_SOLID},
 };
 
 static const parameter_1_0 parameters[] = {
@@ -41,7 +50,7 @@ static const pfu_unit_class classes[] = {{
     2,
     2,
     1,
-    ports,
+    (const pfu_port*)(const void*)ports,
     (const pfu_parameter*)(const void*)parameters, /* a 1.0 host would have declared it this way */
     results,
     copy_unit_create,

@@ -5,8 +5,8 @@
 #include <stddef.h>
 
 static const pfu_port ports[] = {
-    {{PFU_ABI_MAJOR, PFU_ABI_MINOR, sizeof(pfu_port)}, "feed", "stream in", PFU_INLET, PFU_PHASE_AQUEOUS},
-    {{PFU_ABI_MAJOR, PFU_ABI_MINOR, sizeof(pfu_port)}, "product", "stream out", PFU_OUTLET, PFU_PHASE_AQUEOUS},
+    {{PFU_ABI_MAJOR, PFU_ABI_MINOR, sizeof(pfu_port)}, "feed", "stream in", PFU_INLET, PFU_PHASE_AQUEOUS, 0},
+    {{PFU_ABI_MAJOR, PFU_ABI_MINOR, sizeof(pfu_port)}, "product", "stream out", PFU_OUTLET, PFU_PHASE_AQUEOUS, 0},
 };
 
 static const pfu_unit_class classes[] = {{{PFU_ABI_MAJOR, PFU_ABI_MINOR, offsetof(pfu_unit_class, create)},

@@ -3,8 +3,8 @@
 #include "copy_unit.h"
 
 static const pfu_port ports[] = {
-    {{PFU_ABI_MAJOR + 1, 0, sizeof(pfu_port)}, "feed", "stream in", PFU_INLET, PFU_PHASE_AQUEOUS},
-    {{PFU_ABI_MAJOR + 1, 0, sizeof(pfu_port)}, "product", "stream out", PFU_OUTLET, PFU_PHASE_AQUEOUS},
+    {{PFU_ABI_MAJOR + 1, 0, sizeof(pfu_port)}, "feed", "stream in", PFU_INLET, PFU_PHASE_AQUEOUS, 0},
+    {{PFU_ABI_MAJOR + 1, 0, sizeof(pfu_port)}, "product", "stream out", PFU_OUTLET, PFU_PHASE_AQUEOUS, 0},
 };
 
 static const pfu_result results[] = {{{PFU_ABI_MAJOR + 1, 0, sizeof(pfu_result)}, "pressure_drop", "Pa", "drop"}};
