@@ -5,6 +5,7 @@
 #include <unistd.h>
 
 #include <cerrno>
+#include <cstdio>
 #include <cstring>
 #include <string>
 
@@ -21,7 +22,7 @@ class TemporaryFile {
   explicit TemporaryFile(const std::filesystem::path& target) {
     const std::filesystem::path directory = target.has_parent_path() ? target.parent_path() : ".";
     // Hidden and named after the target, so a crash leaves an orphan that says what it was.
-    name_ = (directory / ("." + target.filename().string() + ".tmp-XXXXXX")).string();
+    name_ = (directory / fmt::format(".{}.tmp-XXXXXX", target.filename().string())).string();
     descriptor_ = mkstemp(name_.data());
     if (descriptor_ < 0) {
       throw FileWriteError(fmt::format("cannot create a temporary file in {}: {}", directory.string(), reason()));

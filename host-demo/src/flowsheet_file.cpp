@@ -168,7 +168,7 @@ class Reader {
       if (!(mass > 0.0) || !std::isfinite(mass)) throw InputError(where, fmt::format("{} has no mass", formula));
       return mass;
     } catch (const thermo::ThermoError& error) {
-      throw InputError(where, fmt::format("cannot read the formula '{}': {}", formula, error.what()));
+      throw InputError(where, fmt::format("bad formula: {}", error.what()));
     }
   }
 

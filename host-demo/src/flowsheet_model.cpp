@@ -45,13 +45,17 @@ class Binder {
   }
 
   Flowsheet bind() {
-    build_slate();
     for (std::size_t i = 0; i < flowsheet_.input.streams.size(); ++i) {
       const StreamInput& stream = flowsheet_.input.streams[i];
-      flowsheet_.streams.push_back(StreamNode{.name = stream.name, .at = stream.at, .spec = i});
+      StreamNode node;
+      node.name = stream.name;
+      node.at = stream.at;
+      node.spec = i;
+      flowsheet_.streams.push_back(std::move(node));
     }
     for (const UnitInput& unit : flowsheet_.input.units) bind_unit(unit);
     check_streams();
+    build_slate();
     build_given_states();
     bind_tear_choice();
     return std::move(flowsheet_);
@@ -114,7 +118,10 @@ class Binder {
     for (std::size_t i = 0; i < flowsheet_.streams.size(); ++i) {
       if (flowsheet_.streams[i].name == connection.stream) return i;
     }
-    flowsheet_.streams.push_back(StreamNode{.name = connection.stream, .at = connection.stream_at});
+    StreamNode node;
+    node.name = connection.stream;
+    node.at = connection.stream_at;
+    flowsheet_.streams.push_back(std::move(node));
     return flowsheet_.streams.size() - 1;
   }
 
@@ -163,9 +170,11 @@ class Binder {
     }
     if (!std::isfinite(value)) throw InputError(given.value_at, fmt::format("{} is not a finite number", what));
     if (value < declared.lower || value > declared.upper) {
-      throw InputError(given.value_at, fmt::format("{} = {} is {:g} {}, outside its bounds [{}, {}] {}", what, given.text,
-                                                   value, declared.unit, bound_text(declared.lower),
-                                                   bound_text(declared.upper), declared.unit));
+      const std::string unit_suffix = dimensionless ? "" : " " + declared.unit;
+      const std::string converted = written.unit.empty() ? "" : fmt::format(" ({:g}{})", value, unit_suffix);
+      throw InputError(given.value_at, fmt::format("{} = {}{} is outside its bounds [{}, {}]{}", what, given.text,
+                                                   converted, bound_text(declared.lower), bound_text(declared.upper),
+                                                   unit_suffix));
     }
     return {declared.name, value};
   }
@@ -177,9 +186,10 @@ class Binder {
       if (message.find("did you mean") != std::string::npos) {
         message += fmt::format(" (known types: {})", fmt::join(catalog_.types(), ", "));
       }
-      message += fmt::format("\nsearched: {}", catalog_.search_path().empty()
-                                                   ? std::string("(no directories)")
-                                                   : fmt::format("{}", fmt::join(catalog_.search_path(), ", ")));
+      std::vector<std::string> directories;
+      for (const auto& directory : catalog_.search_path()) directories.push_back(directory.string());
+      message += fmt::format("\nsearched: {}", directories.empty() ? std::string("(no directories)")
+                                                                   : fmt::format("{}", fmt::join(directories, ", ")));
       for (const ModuleProblem& problem : catalog_.problems()) {
         message += fmt::format("\nnot loaded: {}", problem.message);
       }
@@ -224,8 +234,28 @@ class Binder {
     pending_ = &node;
     for (const unit_host::PortInfo& port : info.ports) {
       const auto connection = std::ranges::find(unit.ports, port.name, &PortConnection::port);
+      if (connection == unit.ports.end() && port.optional) {
+        StreamNode hidden;
+        hidden.name = fmt::format("{}.{}", unit.name, port.name);
+        hidden.at = unit.at;
+        hidden.unconnected = true;
+        if (port.inlet) {
+          hidden.sink_unit = unit_index;
+          hidden.sink_port = node.inlets.size();
+          hidden.sink_at = unit.at;
+        } else {
+          hidden.source_unit = unit_index;
+          hidden.source_port = node.outlets.size();
+          hidden.source_at = unit.at;
+        }
+        flowsheet_.streams.push_back(std::move(hidden));
+        (port.inlet ? node.inlet_ports : node.outlet_ports).push_back(port.name);
+        (port.inlet ? node.inlets : node.outlets).push_back(flowsheet_.streams.size() - 1);
+        continue;
+      }
       if (connection == unit.ports.end()) {
-        throw InputError(unit.at, fmt::format("{}: port '{}' ({}: {}) is not connected; name its stream under 'ports'",
+        throw InputError(unit.at, fmt::format("{}: port '{}' ({}: {}) is not connected; name its stream under "
+                                              "'ports' (only ports the unit marks optional may be left out)",
                                               label, port.name, direction_word(port.inlet), port.meaning));
       }
       const std::size_t stream = stream_named(*connection);
@@ -281,6 +311,7 @@ class Binder {
 
   void check_streams() {
     for (StreamNode& stream : flowsheet_.streams) {
+      if (stream.unconnected) continue;
       const StreamInput* spec = stream.spec ? &input().streams[*stream.spec] : nullptr;
       if (stream.source_unit == std::nullopt && stream.sink_unit == std::nullopt) {
         throw InputError(stream.at, fmt::format("stream '{}' is given, but no unit's port names it; connect it under "

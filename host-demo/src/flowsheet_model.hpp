@@ -27,6 +27,10 @@ struct StreamNode {
   std::optional<std::size_t> sink_unit;  // the unit whose inlet takes it
   std::size_t sink_port = 0;             // index among that unit's inlets
   SourcePosition sink_at;
+  // An optional port (PFU_PORT_OPTIONAL, unit ABI 1.2) left unconnected gets a stream of its own,
+  // named "unit.port" (a name no user stream can have), which is not reported: for an inlet an
+  // empty one, for an outlet one that must stay empty (the unused outlets of a splitter, say).
+  bool unconnected = false;
 
   bool is_feed() const noexcept { return !source_unit.has_value(); }
   bool is_product() const noexcept { return !sink_unit.has_value(); }

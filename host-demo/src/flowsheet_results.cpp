@@ -92,6 +92,7 @@ std::vector<ResultQuantity> flatten(const SolvedFlowsheet& solved) {
   const unit_host::Slate& slate = flowsheet.slate;
   std::vector<ResultQuantity> quantities;
   for (std::size_t s = 0; s < flowsheet.streams.size(); ++s) {
+    if (flowsheet.streams[s].unconnected) continue;
     const unit_host::StreamState& state = solved.solution.streams[s];
     const StreamSummary& summary = solved.summaries[s];
     const std::string base = flows_key(flowsheet, s);
@@ -157,6 +158,7 @@ std::string results_yaml(const SolvedFlowsheet& solved, const std::vector<std::s
   }
   out += "streams:\n";
   for (std::size_t s = 0; s < flowsheet.streams.size(); ++s) {
+    if (flowsheet.streams[s].unconnected) continue;
     const unit_host::StreamState& state = solution.streams[s];
     const StreamSummary& summary = solved.summaries[s];
     out += fmt::format("  {}:\n", yaml_string(flowsheet.streams[s].name));

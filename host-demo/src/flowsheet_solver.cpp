@@ -179,6 +179,14 @@ class Runner {
     std::vector<unit_host::StreamState>& inlets = inlet_scratch_[index];
     std::vector<unit_host::StreamState>& outlets = outlet_scratch_[index];
     for (std::size_t k = 0; k < unit.inlets.size(); ++k) inlets[k] = solution_.streams[unit.inlets[k]];
+    // An unconnected optional inlet carries nothing, at the conditions of the unit's first
+    // connected inlet, so that a rule such as "the lowest inlet pressure" is not led astray.
+    const auto connected = std::ranges::find_if(unit.inlets, [&](std::size_t s) { return !flowsheet_.streams[s].unconnected; });
+    for (std::size_t k = 0; k < unit.inlets.size(); ++k) {
+      if (!flowsheet_.streams[unit.inlets[k]].unconnected) continue;
+      inlets[k].temperature = connected != unit.inlets.end() ? solution_.streams[*connected].temperature : fallback_temperature;
+      inlets[k].pressure = connected != unit.inlets.end() ? solution_.streams[*connected].pressure : fallback_pressure;
+    }
     UnitOutcome& outcome = solution_.units[index];
     const auto start = std::chrono::steady_clock::now();
     unit_host::Solution result;

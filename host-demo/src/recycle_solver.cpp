@@ -42,6 +42,7 @@ struct Problem {
   std::vector<RecycleIteration> history;
   std::exception_ptr error;
   std::string kinsol_message;
+  bool breakdown = false;  // Anderson's extrapolation gave a non-finite iterate
 };
 
 // One pass, recorded: the relative change is the convergence measure this host reports.
@@ -73,6 +74,16 @@ int scaled_pass(N_Vector u, N_Vector gu, void* data) {
     if (static_cast<long>(problem.history.size()) >= problem.max_iterations) return -1;
     const double* uu = N_VGetArrayPointer(u);
     double* gg = N_VGetArrayPointer(gu);
+    // KINSOL's Anderson update solves its least-squares problem by a QR factorisation without
+    // rank checks; once the differences of the last iterates are (nearly) dependent, as they
+    // become when the loop stagnates in round-off, it can divide by zero. Stop, and let the
+    // driver restart from the last good pass with a fresh history.
+    for (std::size_t i = 0; i < problem.x.size(); ++i) {
+      if (!std::isfinite(uu[i])) {
+        problem.breakdown = true;
+        return -1;
+      }
+    }
     for (std::size_t i = 0; i < problem.x.size(); ++i) problem.x[i] = problem.scale[i] * uu[i];
     evaluate(problem);
     for (std::size_t i = 0; i < problem.x.size(); ++i) gg[i] = problem.gx[i] / problem.scale[i];
@@ -132,8 +143,9 @@ RecycleOutcome converge_recycle(std::vector<double> x0, const RecycleFunction& g
     if (!kinsol) throw std::bad_alloc();
     void* memory = kinsol.get();
     check(KINSetErrHandlerFn(memory, collect_message, &problem), "KINSetErrHandlerFn");
-    // Anderson's depth must be set before KINInit, which sizes its history.
-    check(KINSetMAA(memory, std::min<long>(options.acceleration_depth, static_cast<long>(n) + 1)), "KINSetMAA");
+    // Anderson's depth must be set before KINInit, which sizes its history; more earlier
+    // iterates than variables would make its least-squares problem singular.
+    check(KINSetMAA(memory, std::min<long>(options.acceleration_depth, static_cast<long>(n))), "KINSetMAA");
     check(KINInit(memory, scaled_pass, u.get()), "KINInit");
     check(KINSetUserData(memory, &problem), "KINSetUserData");
     const long remaining = options.max_iterations - static_cast<long>(problem.history.size());
@@ -149,6 +161,10 @@ RecycleOutcome converge_recycle(std::vector<double> x0, const RecycleFunction& g
     const int flag = KINSol(memory, u.get(), KIN_FP, ones.get(), ones.get());
     if (problem.error) std::rethrow_exception(problem.error);
     if (!problem.history.empty() && converged()) return outcome();
+    if (problem.breakdown) {
+      problem.breakdown = false;
+      continue;  // restart from the last pass, which was finite
+    }
     if (flag == KIN_MAXITER_REACHED || flag == KIN_SYSFUNC_FAIL) break;  // out of passes
     if (flag < 0) {
       throw RecycleNotConverged(fmt::format("KINSOL's fixed-point iteration failed (flag {}): {}", flag,
@@ -159,8 +175,7 @@ RecycleOutcome converge_recycle(std::vector<double> x0, const RecycleFunction& g
     // again from here with new scales (the acceleration history is lost, the progress is not).
   }
   throw RecycleNotConverged(
-      fmt::format("the recycle did not converge in {} iterations: the largest relative change is still {:.3g} (tolerance "
-                  "{:.3g})",
+      fmt::format("after {} iterations the largest relative change is still {:.3g} (tolerance {:.3g})",
                   problem.history.size(), problem.history.back().largest_relative_change, options.tolerance),
       problem.history);
 }

@@ -46,4 +46,6 @@ TEST_CASE("unreadable formulas are rejected with the position") {
   CHECK_THROWS_WITH(parse_formula("H2O x"), Catch::Contains("unexpected ' '"));
   CHECK_THROWS_WITH(parse_formula("na"), Catch::Contains("expected an element symbol"));
   CHECK_THROWS_AS(parse_formula("()"), ThermoError);
+  // Found by the flowsheet fuzzer: a long charge once overflowed an int.
+  CHECK_THROWS_WITH(parse_formula("Na+2222222222"), Catch::Contains("not a charge"));
 }

@@ -87,7 +87,15 @@ class FormulaReader {
     if (at_end()) return sign;
     const std::size_t start = position_;
     int magnitude = 0;
-    while (at_digit()) magnitude = 10 * magnitude + (text_[position_++] - '0');
+    // No ion carries more than a handful of charges; stop long before int overflows.
+    constexpr int largest_charge = 99;
+    while (at_digit()) {
+      magnitude = 10 * magnitude + (text_[position_++] - '0');
+      if (magnitude > largest_charge) {
+        position_ = start;
+        fail(fmt::format("a charge above {} is not a charge", largest_charge));
+      }
+    }
     if (position_ == start || magnitude == 0) {
       position_ = start;
       fail("a charge is written as +, -, +2, -3 at the end of the formula");
