@@ -1,4 +1,4 @@
-// The host finds both units by type name in its built-in module directory, as a flowsheet names them.
+// The host finds the units by type name in its built-in module directory, as a flowsheet names them.
 #include <catch2/catch.hpp>
 
 #include <filesystem>
@@ -8,15 +8,18 @@
 
 namespace search = protonflow::host;
 
-TEST_CASE("the host's built-in directory offers the splitter and the heater, each from its own module") {
+TEST_CASE("the host's built-in directory offers the splitter, the heater and the mixer, the last two from one module") {
   CHECK(search::builtin_unit_directory() == std::filesystem::path(UNITS_BUILT_IN_DIRECTORY));
   const std::vector<std::filesystem::path> path{search::builtin_unit_directory()};
   const search::UnitCatalog catalog = search::UnitCatalog::scan(path);
   CHECK(catalog.problems().empty());
+  CHECK(catalog.shadowed().empty());  // no type offered twice
   REQUIRE(catalog.module_for("splitter") != nullptr);
   REQUIRE(catalog.module_for("heater") != nullptr);
+  REQUIRE(catalog.module_for("mixer") != nullptr);
   CHECK(catalog.module_for("splitter")->file() == std::filesystem::path(UNITS_SPLITTER_MODULE));
   CHECK(catalog.module_for("heater")->file() == std::filesystem::path(UNITS_HEATER_MODULE));
   CHECK(catalog.module_for("splitter")->name() == "protonflow-splitter");
   CHECK(catalog.module_for("heater")->name() == "protonflow-heater");
+  CHECK(catalog.module_for("mixer")->file() == std::filesystem::path(UNITS_HEATER_MODULE));
 }

@@ -1,0 +1,30 @@
+// The chemical system in which a unit of this module equilibrates every stream of an instance:
+// one per instance, built from the slate at create (docs/units.md, "The chemical system").
+#pragma once
+
+#include <protonflow/unit_module.hpp>
+
+#include <protonflow/thermo/chemical_system.hpp>
+
+#include <array>
+#include <memory>
+#include <string>
+#include <string_view>
+
+namespace protonflow::units {
+
+// The activity-model parameter every unit of this module declares, and the choices behind it.
+inline constexpr std::array<const char*, 2> activity_model_choices{"davies", "b_dot"};
+inline constexpr pfu_parameter activity_model_parameter =
+    unit::choice("activity_model", activity_model_choices, "davies", "activity coefficients: Davies or extended Debye-Hueckel (B-dot)");
+
+// The system over the slate's components (H2O must be one) with the activity model named by
+// activity_model (one of activity_model_choices); every solid the slate reaches may precipitate,
+// and a closed gas phase may form wherever the slate reaches a gas, which is always (water vapour).
+// Every slate solid phase must be a solid of the species data. Refuses with UnitError
+// (PFU_INVALID_PARAMETER, or PFU_INTERNAL_ERROR when the species data cannot be read), the message
+// beginning "unit 'UNIT_TYPE': ".
+std::unique_ptr<thermo::ChemicalSystem> make_stream_system(std::string_view unit_type, const unit::Slate& slate,
+                                                           const std::string& activity_model);
+
+}  // namespace protonflow::units
