@@ -16,12 +16,10 @@
 #include "flowsheet_solver.hpp"
 #include "module_search.hpp"
 #include "protonflow/thermo/database.hpp"
+#include "species_data.hpp"
 #include "quantity.hpp"
 
 namespace protonflow::host {
-
-// Reads the species data; a bad data file becomes an InputError at its own line.
-thermo::Database load_species_data(const std::filesystem::path& directory);
 
 // A failure during the solve, placed in the flowsheet: where, what, the exit code, and details
 // (a recycle's history) to print after the message.

@@ -15,24 +15,13 @@
 #include "quantity.hpp"
 #include "solution_file.hpp"
 #include "speciation_report.hpp"
+#include "species_data.hpp"
 
 namespace protonflow::host {
 namespace {
 
 constexpr double celsius_offset = 273.15;  // K at 0 °C, by definition of the Celsius scale (SI Brochure)
 
-thermo::Database load_data(const std::filesystem::path& directory) {
-  if (!std::filesystem::is_directory(directory)) {
-    throw InputError(SourcePosition{directory.string(), 0, 0}, "the species data directory does not exist");
-  }
-  try {
-    return thermo::load_database(directory);
-  } catch (const thermo::DataError& error) {
-    throw InputError(SourcePosition{error.file(), error.line(), error.column()}, error.what());
-  } catch (const thermo::ThermoError& error) {
-    throw InputError(SourcePosition{directory.string(), 0, 0}, error.what());
-  }
-}
 
 // Each component is mapped onto the basis alone first, so an unknown formula is reported at its
 // own line rather than at the list.
@@ -145,7 +134,7 @@ void print_convergence_failure(const thermo::ConvergenceError& error, const Solu
 int speciate(const SpeciateOptions& options, std::ostream& out, std::ostream& err) {
   const UnitConverter units;
   const SolutionInput input = read_solution_file(options.file, units);
-  const thermo::Database database = load_data(options.data_directory);
+  const thermo::Database database = load_species_data(options.data_directory);
   check_components_known(database, input);
   check_phases_known(database, input);
   const ComponentSlate slate = to_component_slate(input);

@@ -9,29 +9,11 @@
 
 #include <protonflow/unit_host.hpp>
 
+#include "../support/temporary_directory.hpp"
+
 namespace protonflow::abi_test {
 
-// A fresh directory under the system's temporary directory, removed with everything in it.
-class TemporaryDirectory {
- public:
-  TemporaryDirectory() {
-    static std::atomic<int> counter{0};
-    path_ = std::filesystem::temp_directory_path() /
-            ("protonflow-abi-" + std::to_string(::getpid()) + "-" + std::to_string(counter++));
-    std::filesystem::remove_all(path_);
-    std::filesystem::create_directories(path_);
-  }
-  TemporaryDirectory(const TemporaryDirectory&) = delete;
-  TemporaryDirectory& operator=(const TemporaryDirectory&) = delete;
-  ~TemporaryDirectory() {
-    std::error_code ignored;
-    std::filesystem::remove_all(path_, ignored);
-  }
-  const std::filesystem::path& path() const noexcept { return path_; }
-
- private:
-  std::filesystem::path path_;
-};
+using test_support::TemporaryDirectory;
 
 // Three components and one solid phase: rows aqueous, gas, gypsum.
 inline unit_host::Slate test_slate() { return {{"H2O", "H2SO4", "NaOH"}, {"gypsum"}}; }

@@ -23,7 +23,7 @@ const UnitConverter& converter() {
   return units;
 }
 
-// Streams only: the reader does not look at unit types, so one placeholder unit will do. The
+// Streams only: the reader does not look at unit types, so any one unit entry will do. The
 // "streams:" line put first makes every line number below one more than in the snippet.
 FlowsheetInput parse(const std::string& streams, const std::string& top = "") {
   const std::string text = top + "streams:\n" + streams + "units:\n  u:\n    type: any\n    ports: {feed: a}\n";

@@ -41,6 +41,17 @@ std::ostream& operator<<(std::ostream& os, const Case& c) {
   return os;
 }
 
+// The slate and amounts of a case, on 1 kg of water.
+std::pair<std::vector<std::string>, std::vector<double>> slate_of(const Case& c) {
+  std::vector<std::string> components{"H2O"};
+  std::vector<double> amounts{1.0 / constants::water_molar_mass};
+  for (const auto& [name, m] : c.recipe) {
+    components.push_back(name);
+    amounts.push_back(m);
+  }
+  return {components, amounts};
+}
+
 rc::Gen<double> log_uniform_molality() {
   // 1e-6 … 3 mol/kg, uniform in log10
   return rc::gen::map(rc::gen::inRange(0, 1000001), [](int k) { return std::pow(10.0, -6.0 + 6.4771212547 * k / 1e6); });
@@ -82,12 +93,7 @@ struct Solved {
 };
 
 Solved solve_case(const Case& c) {
-  std::vector<std::string> components{"H2O"};
-  std::vector<double> amounts{1.0 / constants::water_molar_mass};
-  for (const auto& [name, m] : c.recipe) {
-    components.push_back(name);
-    amounts.push_back(m);
-  }
+  auto [components, amounts] = slate_of(c);
   SystemOptions options;
   options.activity = c.model;
   ChemicalSystem system(database(), components, options);
@@ -172,12 +178,7 @@ TEST_CASE("every random composition converges with closed balances") {
 TEST_CASE("a temperature outside a system's data range is a typed error") {
   rc::prop("just outside the range, the solver refuses with out_of_range", [] {
     const Case c = *random_case();
-    std::vector<std::string> components{"H2O"};
-    std::vector<double> amounts{1.0 / constants::water_molar_mass};
-    for (const auto& [name, m] : c.recipe) {
-      components.push_back(name);
-      amounts.push_back(m);
-    }
+    auto [components, amounts] = slate_of(c);
     const ChemicalSystem system(database(), components);
     EquilibriumSolver solver(system);
     for (const double t : {system.minimum_temperature() - 0.01, system.maximum_temperature() + 0.01}) {
@@ -243,12 +244,7 @@ rc::Gen<Case> random_solid_case() { return random_case_from(solid_pool); }
 
 // Every solid the slate reaches is allowed to precipitate.
 Solved solve_with_solids(const Case& c) {
-  std::vector<std::string> components{"H2O"};
-  std::vector<double> amounts{1.0 / constants::water_molar_mass};
-  for (const auto& [name, m] : c.recipe) {
-    components.push_back(name);
-    amounts.push_back(m);
-  }
+  auto [components, amounts] = slate_of(c);
   SystemOptions options;
   options.activity = c.model;
   const ChemicalSystem without_solids(database(), components);
@@ -290,12 +286,7 @@ constexpr double two_atmospheres = 2.0 * constants::standard_atmosphere;
 TEST_CASE("with a closed gas phase and solids, every case converges and each phase is complementary") {
   rc::prop("a gas phase exists exactly where the solution's vapour pressures reach the total pressure", [] {
     const Case c = *random_gas_case();
-    std::vector<std::string> components{"H2O"};
-    std::vector<double> amounts{1.0 / constants::water_molar_mass};
-    for (const auto& [name, m] : c.recipe) {
-      components.push_back(name);
-      amounts.push_back(m);
-    }
+    auto [components, amounts] = slate_of(c);
     SystemOptions options;
     options.activity = c.model;
     options.gas_phase = true;
@@ -323,12 +314,7 @@ TEST_CASE("open to a gas at a fixed partial pressure, every case converges with 
   rc::prop("the solution's equilibrium partial pressure equals the reservoir's", [] {
     const Case c = *random_gas_case();
     const auto pressure = *rc::gen::map(rc::gen::inRange(0, 1001), [](int k) { return std::pow(10.0, -1.0 + 5.0 * k / 1000.0); });
-    std::vector<std::string> components{"H2O"};
-    std::vector<double> amounts{1.0 / constants::water_molar_mass};
-    for (const auto& [name, m] : c.recipe) {
-      components.push_back(name);
-      amounts.push_back(m);
-    }
+    auto [components, amounts] = slate_of(c);
     SystemOptions options;
     options.activity = c.model;
     options.open_gases = {"CO2(g)"};  // 0.1 Pa … 10 kPa of CO2: from scrubbed air to flue gas
