@@ -4,9 +4,21 @@
 #include <protonflow/thermo/errors.hpp>
 #include <protonflow/thermo/species.hpp>
 
-#include <optional>
 
 namespace protonflow::units {
+
+namespace {
+
+// The species data, read once per module and shared by every instance: it is read-only after
+// loading, so instances still share nothing mutable, and a flowsheet of many heaters and mixers
+// reads the files once (about 13 ms each time, docs/performance.md). A failed read is retried by
+// the next create (a static whose initialisation throws is not initialised).
+const thermo::Database& module_database() {
+  static const thermo::Database database = thermo::load_database(thermo::default_data_directory());
+  return database;
+}
+
+}  // namespace
 
 std::unique_ptr<thermo::ChemicalSystem> make_stream_system(std::string_view unit_type, const unit::Slate& slate,
                                                            const std::string& activity_model) {
@@ -14,13 +26,13 @@ std::unique_ptr<thermo::ChemicalSystem> make_stream_system(std::string_view unit
   if (!slate.find_component("H2O")) throw unit::UnitError(PFU_INVALID_PARAMETER, prefix + "the slate must include H2O, the solvent");
   thermo::SystemOptions options;
   options.activity = activity_model == "b_dot" ? thermo::ActivityModelKind::b_dot : thermo::ActivityModelKind::davies;
-  std::optional<thermo::Database> loaded;
+  const thermo::Database* shared = nullptr;
   try {
-    loaded.emplace(thermo::load_database(thermo::default_data_directory()));
+    shared = &module_database();
   } catch (const thermo::ThermoError& error) {
     throw unit::UnitError(PFU_INTERNAL_ERROR, prefix + "cannot read the species data: " + error.what());
   }
-  const thermo::Database& database = *loaded;
+  const thermo::Database& database = *shared;
   try {
     for (const std::string& solid : slate.solids) {
       const thermo::Species* species = database.find(solid);
