@@ -14,7 +14,7 @@
 namespace protonflow::units {
 
 // The activity-model parameter every unit of this module declares, and the choices behind it.
-inline constexpr std::array<const char*, 2> activity_model_choices{"davies", "b_dot"};
+inline constexpr std::array<const char*, 2> activity_model_choices{"davies", "b-dot"};
 inline constexpr pfu_parameter activity_model_parameter =
     unit::choice("activity_model", activity_model_choices, "davies", "activity coefficients: Davies or extended Debye-Hueckel (B-dot)");
 
