@@ -14,6 +14,7 @@ inline std::string number_text(double value, int digits = 6) {
   return std::string(text.data(), written.ptr);
 }
 
+// 0 °C = 273.15 K by the definition of the Celsius scale (SI Brochure).
 inline std::string celsius_text(double kelvin) { return number_text(kelvin - 273.15, 4) + " °C"; }
 
 }  // namespace protonflow::units
