@@ -41,6 +41,8 @@ int main(int argc, char** argv) {
         app.add_subcommand("speciate", "Speciate one solution given in a YAML file (docs/solution-format.md)");
     speciate_command->add_option("FILE", speciate.file, "solution file (YAML)")->required();
     speciate_command->add_flag("--table", speciate.table, "write a fixed-width table instead of YAML");
+    speciate_command->add_option("--stream", speciate.stream,
+                                 "speciate this stream of a flowsheet file instead (docs/flowsheet-format.md)");
     speciate_command->add_option("--data-dir", data_directory, "directory of species data (*.yaml)")
         ->default_str(protonflow::thermo::default_data_directory().string());
     speciate_command->add_option("--max-iterations", speciate.max_iterations, "Newton iterations allowed")

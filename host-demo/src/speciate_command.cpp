@@ -16,6 +16,7 @@
 #include "solution_file.hpp"
 #include "speciation_report.hpp"
 #include "species_data.hpp"
+#include "stream_solution.hpp"
 
 namespace protonflow::host {
 namespace {
@@ -133,7 +134,8 @@ void print_convergence_failure(const thermo::ConvergenceError& error, const Solu
 
 int speciate(const SpeciateOptions& options, std::ostream& out, std::ostream& err) {
   const UnitConverter units;
-  const SolutionInput input = read_solution_file(options.file, units);
+  const SolutionInput input = options.stream.empty() ? read_solution_file(options.file, units)
+                                                     : read_stream_solution(options.file, options.stream, units);
   const thermo::Database database = load_species_data(options.data_directory);
   check_components_known(database, input);
   check_phases_known(database, input);

@@ -15,6 +15,7 @@ enum ExitCode : int {
 
 struct SpeciateOptions {
   std::string file;
+  std::string stream;  // if given: file is a flowsheet, and this stream of it is speciated
   bool table = false;
   std::filesystem::path data_directory;
   long max_iterations = 200;  // Newton iterations allowed (the engine's default)

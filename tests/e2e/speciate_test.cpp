@@ -318,3 +318,16 @@ TEST_CASE("unknown solids and a doubly given temperature are rejected at their l
   require_rejected("unknown-solid.yaml", 4, 29, {"unknown solid 'gypsm'", "gypsum"});
   require_rejected("temperature-and-enthalpy.yaml", 3, 3, {"not both"});
 }
+
+TEST_CASE("a flowsheet's stream speciates as the same solution written as a solution file", "[speciate][stream]") {
+  // The flowsheet's stream format serves speciate too: 2 mol/s of 0.01 mol/kg HCl is the solution
+  // of hcl-0.01-davies.yaml at another scale, so every intensive result must agree.
+  const YAML::Node from_stream =
+      report_of(speciate(cases_directory / "flowsheet-with-hcl-stream.yaml", {"--stream", "rinse"}));
+  const YAML::Node from_solution = speciate_report(cases_directory / "hcl-0.01-davies.yaml");
+  require_same_speciation(from_stream, from_solution, 1e-9);
+  require_balances_close(from_stream);
+  const ProgramRun unknown = speciate(cases_directory / "flowsheet-with-hcl-stream.yaml", {"--stream", "rinsing"});
+  CHECK(unknown.exit_code == 1);
+  CHECK_THAT(unknown.err, Catch::Contains("no stream 'rinsing'") && Catch::Contains("rinse"));
+}
