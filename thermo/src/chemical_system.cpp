@@ -47,6 +47,16 @@ ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string
     return -1;
   };
 
+  // A formation reaction as coefficients per basis solute, with its water apart.
+  const auto spread_reaction = [&](const Species& s, std::vector<double>& stoichiometry, double& water) {
+    for (const auto& [name, k] : s.reaction) {
+      if (name == "H2O") {
+        water += k;
+      } else {
+        stoichiometry[static_cast<std::size_t>(basis_position(name))] += k;
+      }
+    }
+  };
   const auto add_solute = [&](const Species& s) {
     Solute solute;
     solute.name = s.name;
@@ -59,13 +69,7 @@ ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string
     if (s.is_basis) {
       solute.stoichiometry[static_cast<std::size_t>(basis_position(s.name))] = 1.0;
     } else {
-      for (const auto& [name, k] : s.reaction) {
-        if (name == "H2O") {
-          solute.water_coefficient += k;
-        } else {
-          solute.stoichiometry[static_cast<std::size_t>(basis_position(name))] += k;
-        }
-      }
+      spread_reaction(s, solute.stoichiometry, solute.water_coefficient);
       solute.log_k = s.log_k;
     }
     const detail::StandardEnthalpy h = detail::standard_enthalpy(database, s);
@@ -104,13 +108,7 @@ ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string
     PhaseSpecies p;
     p.name = s.name;
     p.stoichiometry.assign(basis_count_, 0.0);
-    for (const auto& [name, k] : s.reaction) {
-      if (name == "H2O") {
-        p.water_coefficient += k;
-      } else {
-        p.stoichiometry[static_cast<std::size_t>(basis_position(name))] += k;
-      }
-    }
+    spread_reaction(s, p.stoichiometry, p.water_coefficient);
     p.log_k = s.log_k;
     const detail::StandardEnthalpy h = detail::standard_enthalpy(database, s);
     p.reference_enthalpy = h.at_reference;
