@@ -13,9 +13,9 @@ namespace {
 constexpr double molar_mass = 0.03646094;  // kg/mol, python3-periodictable (iupac-atomic-weights)
 constexpr double formation_enthalpy = -92307.0;  // ΔfH° HCl(g), J/mol: nbs-1982 (REFERENCE-VALUES.md)
 constexpr double heat_capacity_gas = 29.12;      // Cp° HCl(g), J/(mol K): nbs-1982 (from memory)
-// HCl(g) → H+ + Cl- at infinite dilution, J/mol: nbs-1982, −167.159 + 92.307 (REFERENCE-VALUES.md).
+// HCl(g) → H^+ + Cl^- at infinite dilution, J/mol: nbs-1982, −167.159 + 92.307 (REFERENCE-VALUES.md).
 constexpr double solution_enthalpy_at_infinite_dilution = -74852.0;
-// γ±² m(H+) m(Cl-) / p(HCl) at 25 °C, mol² kg⁻² atm⁻¹: brimblecombe-clegg-1988 (from memory).
+// γ±² m(H^+) m(Cl^-) / p(HCl) at 25 °C, mol² kg⁻² atm⁻¹: brimblecombe-clegg-1988 (from memory).
 constexpr double henry_constant = 2.04e6;
 
 // Apparent relative molal enthalpy L_φ at 25 °C, kJ/mol, against n = mol H2O per mol HCl:
@@ -79,7 +79,7 @@ BinaryData make_data() {
       [](double x) { return isotherm().ln_water_activity(x); },
       [](double x) { return isotherm().ln_solute_activity(x) - std::log(henry_constant) + std::log(atmosphere); },
       6.0,  // mol/kg: the range of the HCl ion-interaction parameters (pitzer-1991, from memory)
-      "water is the solvent and HCl is fully dissociated to H+ and Cl-; the ionic engine describes it and a pH "
+      "water is the solvent and HCl is fully dissociated to H^+ and Cl^-; the ionic engine describes it and a pH "
       "is meaningful",
       "beyond 6 mol/kg (about 18 wt %) the ion-interaction parameters are not fitted; a pH there (below −1) would "
       "be an extrapolation and is not given; this binary model gives enthalpy, heat capacity, density and the "

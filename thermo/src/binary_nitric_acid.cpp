@@ -11,9 +11,9 @@ namespace protonflow::thermo::detail {
 namespace {
 
 constexpr double molar_mass = 0.06301284;  // kg/mol, python3-periodictable (iupac-atomic-weights)
-// HNO3(l) → H+ + NO3- at infinite dilution, J/mol: nbs-1982, −205.0 + 174.10 (from memory).
+// HNO3(l) → H^+ + NO3^- at infinite dilution, J/mol: nbs-1982, −205.0 + 174.10 (from memory).
 constexpr double solution_enthalpy_at_infinite_dilution = -30900.0;
-// γ±² m(H+) m(NO3-) / p(HNO3) at 25 °C, mol² kg⁻² atm⁻¹: brimblecombe-clegg-1989 (from memory).
+// γ±² m(H^+) m(NO3^-) / p(HNO3) at 25 °C, mol² kg⁻² atm⁻¹: brimblecombe-clegg-1989 (from memory).
 constexpr double henry_constant = 2.45e6;
 
 // Apparent relative molal enthalpy L_φ at 25 °C, kJ/mol, against n = mol H2O per mol HNO3:
@@ -81,7 +81,7 @@ BinaryData make_data() {
       [](double x) { return isotherm().ln_water_activity(x); },
       [](double x) { return isotherm().ln_solute_activity(x) - std::log(henry_constant) + std::log(atmosphere); },
       3.0,  // mol/kg: the range of the HNO3 ion-interaction parameters (pitzer-1991, from memory)
-      "water is the solvent and HNO3 is dissociated to H+ and NO3-; the ionic engine describes it and a pH is "
+      "water is the solvent and HNO3 is dissociated to H^+ and NO3^-; the ionic engine describes it and a pH is "
       "meaningful",
       "beyond 3 mol/kg (about 16 wt %) the ion-interaction parameters are not fitted and, increasingly, HNO3 is "
       "present as undissociated molecules (Raman spectra): no pH is given; this binary model gives enthalpy, heat "

@@ -11,7 +11,7 @@ namespace protonflow::thermo::detail {
 namespace {
 
 constexpr double molar_mass = 0.03999711;  // kg/mol, python3-periodictable (iupac-atomic-weights)
-// NaOH(s) → Na+ + OH- at infinite dilution, J/mol: nbs-1982 (REFERENCE-VALUES.md).
+// NaOH(s) → Na^+ + OH^- at infinite dilution, J/mol: nbs-1982 (REFERENCE-VALUES.md).
 constexpr double solution_enthalpy_at_infinite_dilution = -44510.0;
 
 double mole_fraction(double w) {
@@ -70,7 +70,7 @@ BinaryData make_data() {
       [ln_water_activity](double x) { return ln_water_activity(x); },
       {},
       6.0,  // mol/kg: the range of the NaOH ion-interaction parameters (pitzer-1991, from memory)
-      "water is the solvent and NaOH is dissociated to Na+ and OH-; the ionic engine describes it and a pH is "
+      "water is the solvent and NaOH is dissociated to Na^+ and OH^-; the ionic engine describes it and a pH is "
       "meaningful",
       "beyond 6 mol/kg (about 19 wt %) the ion-interaction parameters are not fitted and at 50 wt % fewer than "
       "2.3 mol H2O per mol NaOH remain: the ionic speciation is not meaningful; this binary model gives enthalpy, "

@@ -31,7 +31,7 @@ constexpr HeatOfSolution heats[] = {
     {25.0, -72.30},  // nbs-circular-500 (from memory)
     {50.0, -72.8},   // nbs-1982 (read)
     {100.0, -73.7},  // nbs-1982 (read)
-    {1000.0, -78.3}, // nbs-1982 (read); beyond it the dissociation of HSO4- adds its heat (docs)
+    {1000.0, -78.3}, // nbs-1982 (read); beyond it the dissociation of HSO4^- adds its heat (docs)
 };
 
 SmoothTable heat_of_solution_table() {
@@ -114,7 +114,7 @@ BinaryData make_data() {
       },
       {},
       6.1,  // mol/kg: the range of the H2SO4 ion-interaction parameters (clegg-rard-pitzer-1994, from memory)
-      "water is the solvent and H2SO4 is present as H+, HSO4- and SO4-2; the ionic engine (Pitzer, "
+      "water is the solvent and H2SO4 is present as H^+, HSO4^- and SO4^2-; the ionic engine (Pitzer, "
       "Clegg-Rard-Pitzer 1994 parameters) describes it and a pH is meaningful",
       "beyond 6.1 mol/kg (about 37 wt %) the ion-interaction parameters are not fitted, and above about 70 wt % "
       "(fewer than 2.3 mol H2O per mol H2SO4) too little water is left to hydrate the ions: there is no meaningful "
