@@ -220,6 +220,14 @@ TEST_CASE("concentrated binaries: outside the range a typed error names the quan
   // 38 % HCl boils below 273.15 K at 0.02 atm: the bubble point lies below the range, and says so.
   CHECK_THROWS_AS(bubble_temperature(hcl, 0.38, 0.02 * atmosphere), BinaryRangeError);
   CHECK_THROWS_AS(vapour_specific_enthalpy(ConcentratedBinary::sodium_hydroxide, 350.0, 0.1), ThermoError);
+  // 10 % HCl given 3 MJ/kg more than at its bubble point: one equilibrium stage would boil it all.
+  try {
+    const double t = bubble_temperature(hcl, 0.10, atmosphere);
+    adiabatic_outlet(hcl, 0.10, binary_specific_enthalpy(hcl, t, 0.10) + 3e6, atmosphere);
+    FAIL("no error for a feed that boils away");
+  } catch (const BinaryRangeError& e) {
+    CHECK(e.quantity().find("boil the whole feed") != std::string::npos);
+  }
 }
 
 TEST_CASE("concentrated binaries: the ionic scope says where a pH may be given, and why not beyond") {

@@ -334,6 +334,7 @@ AdiabaticOutlet adiabatic_outlet(ConcentratedBinary binary, double solute_mass_f
   // The liquid moves away from its vapour's composition; step until the energy balance changes sign.
   const double end = y0 < w ? range.maximum_mass_fraction : range.minimum_mass_fraction;
   constexpr int steps = 64;
+  bool boils_away = false;
   double previous = w, f_previous = boiling_mismatch(w);
   for (int k = 1; k <= steps; ++k) {
     const double wl = w + (end - w) * k / steps;
@@ -343,7 +344,10 @@ AdiabaticOutlet adiabatic_outlet(ConcentratedBinary binary, double solute_mass_f
     } catch (const BinaryRangeError&) {
       break;
     }
-    if (!(vapour >= 0.0 && vapour < 1.0)) break;
+    if (!(vapour >= 0.0 && vapour < 1.0)) {
+      boils_away = true;
+      break;
+    }
     const double f = (1.0 - vapour) * specific_enthalpy(d, t, wl) + vapour * vapour_specific_enthalpy(binary, t, y) - enthalpy;
     if (f >= 0.0) {
       const double root = bracketed_root(boiling_mismatch, std::min(previous, wl), std::max(previous, wl),
@@ -355,6 +359,8 @@ AdiabaticOutlet adiabatic_outlet(ConcentratedBinary binary, double solute_mass_f
     previous = wl;
     f_previous = f;
   }
+  if (boils_away)  // one equilibrium stage cannot take up this much heat: the whole feed would boil
+    throw BinaryRangeError(binary, "vapour made per kg fed (the heat would boil the whole feed)", infinity, 0.0, 1.0);
   throw BinaryRangeError(binary, "liquid mass fraction left on boiling", y0 < w ? infinity : -infinity,
                          range.minimum_mass_fraction, range.maximum_mass_fraction);
 }
