@@ -316,3 +316,18 @@ TEST_CASE("HCl: total vapour pressure at 20 °C against the International Critic
     CHECK(total == Approx(kilopascal[k]).epsilon(w[k] <= 0.30 ? 0.05 : 0.15));  // Source: wikipedia-hydrochloric-acid
   }
 }
+
+TEST_CASE("HCl: at the 6 mol/kg hand-over the binary holds Parker's heat of dilution that the dilute engine lacks") {
+  // The gap a mixer would see at the hand-over, binary minus engine enthalpy per mol HCl, is L_φ at
+  // 6 mol/kg: 6.268 kJ/mol (parker-1965, read). It is the term the Pitzer model's temperature
+  // derivatives supply (docs/concentrated-acids.md, "Where the ionic engine takes over").
+  using protonflow::reference::solve_recipe;
+  const double moles = 6.0;
+  const auto r = solve_recipe({{"HCl", moles}}, ActivityModelKind::davies);
+  const double engine = state_enthalpy(r.system, r.speciation);
+  const double solute_mass = moles * describe(ConcentratedBinary::hydrochloric_acid).solute_molar_mass;
+  const double total = r.speciation.water_mass + solute_mass;
+  const double binary =
+      total * binary_specific_enthalpy(ConcentratedBinary::hydrochloric_acid, 298.15, solute_mass / total);
+  CHECK((binary - engine) / moles / 1e3 == Approx(6.268).epsilon(0.03));  // Source: parker-1965
+}
