@@ -2,13 +2,14 @@
 // that are not rows of the validation table, and against the thermodynamic identities the model
 // claims: Gibbs–Helmholtz, Gibbs–Duhem, Kirchhoff, and closed mass and energy balances on boiling.
 // Sources beside each assertion; keys in docs/references.md.
-#include <catch2/catch.hpp>
+#include "protonflow/thermo/concentrated_binary.hpp"
 
-#include <cmath>
 #include <fmt/format.h>
+
+#include <catch2/catch.hpp>
+#include <cmath>
 #include <limits>
 
-#include "protonflow/thermo/concentrated_binary.hpp"
 #include "protonflow/thermo/constants.hpp"
 #include "protonflow/thermo/stream_enthalpy.hpp"
 #include "python_reference.hpp"
@@ -165,7 +166,7 @@ TEST_CASE("H2SO4: 98 % acid diluted with water at 25 °C boils at 70 % and 50 %,
     if (!o.boiling) continue;
     const double v = o.vapour_fraction;
     CHECK(v > 0.0);
-    CHECK(o.vapour_solute_mass_fraction == 0.0);  // H2SO4 vapour is not modelled
+    CHECK(o.vapour_solute_mass_fraction == 0.0);                                        // H2SO4 vapour is not modelled
     CHECK((1.0 - v) * o.liquid_solute_mass_fraction == Approx(target).epsilon(1e-12));  // solute balance
     CHECK(o.temperature == Approx(bubble_temperature(b, o.liquid_solute_mass_fraction, atmosphere)).margin(1e-6));
     const double h_out = (1.0 - v) * binary_specific_enthalpy(b, o.temperature, o.liquid_solute_mass_fraction) +
@@ -233,7 +234,8 @@ TEST_CASE("concentrated binaries: outside the range a typed error names the quan
 TEST_CASE("concentrated binaries: the ionic scope says where a pH may be given, and why not beyond") {
   const IonicModelScope dilute = ionic_model_scope(ConcentratedBinary::sulfuric_acid, 0.05);
   CHECK(dilute.meaningful);
-  CHECK(dilute.solute_molality == Approx(0.05 / (0.95 * describe(ConcentratedBinary::sulfuric_acid).solute_molar_mass)));
+  CHECK(dilute.solute_molality ==
+        Approx(0.05 / (0.95 * describe(ConcentratedBinary::sulfuric_acid).solute_molar_mass)));
   const IonicModelScope concentrated = ionic_model_scope(ConcentratedBinary::sulfuric_acid, 0.98);
   CHECK_FALSE(concentrated.meaningful);
   CHECK(concentrated.reason.find("no meaningful pH") != std::string::npos);

@@ -46,7 +46,8 @@ constexpr double slope_beyond_3_molal = 0.0425;  // per mol/kg, fitted (above)
 
 const UniUnivalentIsotherm& isotherm() {
   static const UniUnivalentIsotherm curve(40.0, {0.001, 0.01, 0.1, 0.2, 0.5, 1.0, 1.5, 2.0, 2.5, 3.0},
-                                          {0.965, 0.902, 0.791, 0.754, 0.720, 0.724, 0.753, 0.793, 0.846, 0.909}, slope_beyond_3_molal);
+                                          {0.965, 0.902, 0.791, 0.754, 0.720, 0.724, 0.753, 0.793, 0.846, 0.909},
+                                          slope_beyond_3_molal);
   return curve;
 }
 
