@@ -608,3 +608,21 @@ TEST_CASE("acid_mixer: dry HCl gas and dry NaOH pellets dissolve in water with t
   CHECK(dissolved.solution.results[heat_released] == Approx(0.1 * 44.51e3).epsilon(0.03));
   CHECK(flow(dissolved.product, caustic, PFU_FIRST_SOLID_ROW, "NaOH") == 0.0);  // far below its solubility
 }
+
+TEST_CASE("acid_mixer: 98 % H2SO4 into a salt solution: the acid enters by the binary model, the mix by the engine") {
+  // 0.1 kg/s of 98 % acid into 1 kg/s of 0.1 mol/kg NaCl (as NaOH + HCl): two solutes, so the ionic
+  // engine answers for the mix; the acid, far beyond the engine's reach, brings the binary model's
+  // enthalpy (the same NBS convention). About 0.9 mol/kg H2SO4 in the mix: it warms well above 25 °C.
+  const host::Slate slate{{"H2O", "H2SO4", "NaOH", "HCl"}, {}};
+  auto unit = create_mixer({}, slate);
+  const Mix m = run(unit, {solution(slate, 298.15, {{"NaOH", 0.1}, {"HCl", 0.1}}),
+                           liquor(slate, "H2SO4", molar_mass_h2so4, 0.1, 0.98, 298.15)},
+                    slate);
+  check_mass_balance(m, slate);
+  CHECK(m.solution.results[model] == 2.0);
+  CHECK(m.product.temperature > 305.0);
+  CHECK(m.solution.results[heat_released] > 0.0);
+  CHECK(warned(m.solution, "add acid to water, never water to acid"));
+  REQUIRE(m.solution.series.size() == 1);
+  CHECK(m.solution.series[0].x.size() == 21);  // the path through the engine, acid into the salt solution
+}
