@@ -374,7 +374,7 @@ TEST_CASE("acid_mixer: hot caustic is warned of, and so is gypsum precipitating 
   CHECK(warned(g.solution, "inlets at equilibrium 0)"));
 }
 
-TEST_CASE("acid_mixer: an inlet without flow changes nothing and sets no pressure; the order of inlets does not matter") {
+TEST_CASE("acid_mixer: an inlet without flow changes nothing and sets no pressure, and the order of inlets does not matter") {
   const host::Slate slate{{"H2O", "HCl", "NaOH", "CO2"}, {}};
   host::StreamState first = solution(slate, 298.15, {{"HCl", 0.05}, {"CO2", 0.01}});
   first.pressure = 2.0e5;
@@ -556,7 +556,7 @@ TEST_CASE("acid_mixer: 98 % H2SO4 diluted adiabatically to about 50 % boils, and
   CHECK(warned(m.solution, "acid supplier's data"));
 }
 
-TEST_CASE("acid_mixer: 37 % HCl let down a little gives off HCl fumes; dilute acid gives a pH") {
+TEST_CASE("acid_mixer: 37 % HCl let down a little gives off HCl fumes, and dilute acid gives a pH") {
   const host::Slate hydrochloric{{"H2O", "HCl"}, {}};
   constexpr double molar_mass_hcl = 0.03646;  // kg/mol, python3-periodictable (36.46 g/mol)
   auto unit = create_mixer({}, hydrochloric);
