@@ -1,6 +1,8 @@
 // The equations of the equilibrium problem, side by side with their Jacobian (docs/equilibrium.md).
 #include "equilibrium_solver_impl.hpp"
 
+#include "dense_linear_solver.hpp"
+
 #include "protonflow/thermo/constants.hpp"
 #include "protonflow/thermo/errors.hpp"
 
@@ -116,7 +118,8 @@ void EquilibriumSolver::Impl::residual(const double* x, double* f) {
 // ∂F/∂u, column k: ∂(ln γ_i)/∂u_k = (∂ln γ_i/∂m_k) m_k, and likewise for ln a_w.
 void EquilibriumSolver::Impl::jacobian(const double* x, SUNMatrix jm) {
   evaluate_molalities(x);
-  double* data = SUNDenseMatrix_Data(jm);  // column-major, size × size; KINSOL zeroes it before each call
+  double* data = detail::dense_jacobian_data(jm);  // column-major, size × size
+  std::fill(data, data + size * size, 0.0);
   const auto at = [&](std::size_t row, std::size_t column) -> double& { return data[column * size + row]; };
   const double* dg = evaluation.d_ln_gamma_d_molality.data();
   const double* dw = evaluation.d_ln_water_activity_d_molality.data();

@@ -5,7 +5,7 @@
 #include <cstdlib>
 #include <limits>
 
-#include "eigen_dense_linear_solver.hpp"
+#include "dense_linear_solver.hpp"
 #include "equilibrium_solver_impl.hpp"
 #include "protonflow/thermo/constants.hpp"
 #include "protonflow/thermo/errors.hpp"
@@ -114,8 +114,8 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
   check_flag(KINSetNumMaxIters(kinsol, options.max_iterations), "KINSetNumMaxIters");
   check_flag(KINSetMaxSetupCalls(kinsol, 1), "KINSetMaxSetupCalls");  // exact Newton: a fresh Jacobian each step
   check_flag(KINSetMaxNewtonStep(kinsol, 20.0 * std::sqrt(static_cast<double>(size))), "KINSetMaxNewtonStep");
-  jacobian_matrix = check_created(SUNDenseMatrix(length, length, context), "SUNDenseMatrix");
-  linear_solver = check_created(detail::make_eigen_dense_linear_solver(context, length), "make_eigen_dense_linear_solver");
+  jacobian_matrix = check_created(detail::make_dense_jacobian(context, length), "make_dense_jacobian");
+  linear_solver = check_created(detail::make_dense_lu_solver(context, length), "make_dense_lu_solver");
   check_flag(KINSetLinearSolver(kinsol, linear_solver, jacobian_matrix), "KINSetLinearSolver");
   check_flag(KINSetJacFn(kinsol, jacobian_callback), "KINSetJacFn");
 }

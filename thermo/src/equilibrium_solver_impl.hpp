@@ -5,7 +5,7 @@
 
 #include <kinsol/kinsol.h>
 #include <nvector/nvector_serial.h>
-#include <sunmatrix/sunmatrix_dense.h>
+#include <sundials/sundials_matrix.h>
 
 #include <algorithm>
 #include <cmath>
