@@ -13,7 +13,8 @@ namespace {
 struct DenseJacobian {
   explicit DenseJacobian(sunindextype size) : n(size), data(static_cast<std::size_t>(size * size)) {}
   sunindextype n;
-  std::vector<double> data;  // column-major
+  std::vector<double> data;  // column-major: the Jacobian, or after set-up its LU factors
+  bool keep = false;         // the next set-up keeps the factors in data
 };
 
 DenseJacobian& jacobian(SUNMatrix matrix) { return *static_cast<DenseJacobian*>(matrix->content); }
@@ -47,8 +48,13 @@ int initialize(SUNLinearSolver) { return SUNLS_SUCCESS; }
 
 int setup(SUNLinearSolver solver, SUNMatrix matrix) {
   DenseLU& s = lu(solver);
+  DenseJacobian& j = jacobian(matrix);
+  if (j.keep) {
+    j.keep = false;
+    return s.last_flag == 0 ? SUNLS_SUCCESS : SUNLS_LUFACT_FAIL;
+  }
   const sunindextype n = s.n;
-  double* a = jacobian(matrix).data.data();
+  double* a = j.data.data();
   s.lu = a;
   s.last_flag = 0;
   for (sunindextype k = 0; k < n; ++k) {
@@ -137,6 +143,8 @@ SUNMatrix make_dense_jacobian(SUNContext context, sunindextype n) {
 }
 
 double* dense_jacobian_data(SUNMatrix matrix) { return jacobian(matrix).data.data(); }
+
+void keep_factorization(SUNMatrix matrix) { jacobian(matrix).keep = true; }
 
 SUNLinearSolver make_dense_lu_solver(SUNContext context, sunindextype n) {
   SUNLinearSolver solver = SUNLinSolNewEmpty(context);

@@ -64,6 +64,7 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
       guess_stoichiometry(n * nb),
       guess_ln_k(n),
       gradient(n),
+      basis_amount(nb),
       guess_active(n),
       previous_active(n, 0),
       terms(n) {
@@ -166,7 +167,10 @@ int EquilibriumSolver::Impl::run_kinsol(int strategy) {
   }
   scale[n] = 1.0 / water_total;
   // Solve, then check the flag.
-  return KINSol(kinsol, u, strategy, u_scale, f_scale);
+  const int flag = KINSol(kinsol, u, strategy, u_scale, f_scale);
+  reuse_factorization = false;  // only ever for the first step of a warm solve
+  if (flag < 0) factorization_current = false;
+  return flag;
 }
 
 // KINSOL's success, or a step-size stop whose residual is close enough to the tolerance.
@@ -248,6 +252,7 @@ void EquilibriumSolver::Impl::solve(double t, double p, std::span<const double> 
     ideal_guess(x);
   };
   if (warm) {
+    reuse_factorization = factorization_current && factored_temperature == t && factored_pressure == p;
     std::copy(previous_u.begin(), previous_u.end(), x);
     solid_present = previous_solid_present;
     gas_phase_present = previous_gas_phase_present;
@@ -257,6 +262,7 @@ void EquilibriumSolver::Impl::solve(double t, double p, std::span<const double> 
   bool converged = settle_phases();
   bool used_warm = warm;
   if (!converged && warm) {  // a poor warm start is retried cold before giving up
+    reuse_factorization = false;
     start_cold();
     converged = settle_phases();
     used_warm = false;
