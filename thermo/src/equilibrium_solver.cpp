@@ -316,6 +316,10 @@ Speciation EquilibriumSolver::solve(double temperature, double pressure, std::sp
 
 void EquilibriumSolver::reset_warm_start() noexcept { impl_->has_previous = false; }
 
+double EquilibriumSolver::jacobian_finite_difference_error(double offset) {
+  return impl_->jacobian_finite_difference_error(offset);
+}
+
 const ChemicalSystem& EquilibriumSolver::system() const noexcept { return *impl_->system; }
 
 }  // namespace protonflow::thermo

@@ -60,6 +60,7 @@ struct EquilibriumSolver::Impl {
     return 0;
   }
 
+  double jacobian_finite_difference_error(double offset);
   void set_totals(std::span<const double> amounts, std::span<const double> open_gas_pressures);
   bool settle_phases();
   void predict_precipitation(std::size_t allowed_index);
