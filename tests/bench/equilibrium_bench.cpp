@@ -109,6 +109,10 @@ void speciation_warm_nearby(benchmark::State& state) {
   }
 }
 BENCHMARK(speciation_warm_nearby)->Unit(benchmark::kMicrosecond);
+// Fixed iteration counts, for instruction counts under callgrind (docs/performance.md): the
+// difference between the two runs is 1000 warm solves, set-up and the first cold solve cancel.
+BENCHMARK(speciation_warm_nearby)->Iterations(10)->Unit(benchmark::kMicrosecond);
+BENCHMARK(speciation_warm_nearby)->Iterations(1010)->Unit(benchmark::kMicrosecond);
 
 // Cold solving through the drawn cases.
 void speciation_cold(benchmark::State& state) {
@@ -124,6 +128,8 @@ void speciation_cold(benchmark::State& state) {
   }
 }
 BENCHMARK(speciation_cold)->Unit(benchmark::kMicrosecond);
+BENCHMARK(speciation_cold)->Iterations(10)->Unit(benchmark::kMicrosecond);
+BENCHMARK(speciation_cold)->Iterations(210)->Unit(benchmark::kMicrosecond);
 
 // The same system with calcite and gypsum allowed to precipitate and CO2 open to air (42 Pa, about
 // 415 ppm at 1 atm: the atmosphere's CO2 around 2021, NOAA Mauna Loa annual mean, from memory).

@@ -5,7 +5,7 @@
 #include <cstdlib>
 #include <limits>
 
-#include "eigen_dense_linear_solver.hpp"
+#include "dense_linear_solver.hpp"
 #include "equilibrium_solver_impl.hpp"
 #include "protonflow/thermo/constants.hpp"
 #include "protonflow/thermo/errors.hpp"
@@ -64,6 +64,7 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
       guess_stoichiometry(n * nb),
       guess_ln_k(n),
       gradient(n),
+      basis_amount(nb),
       guess_active(n),
       previous_active(n, 0),
       terms(n) {
@@ -114,8 +115,8 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
   check_flag(KINSetNumMaxIters(kinsol, options.max_iterations), "KINSetNumMaxIters");
   check_flag(KINSetMaxSetupCalls(kinsol, 1), "KINSetMaxSetupCalls");  // exact Newton: a fresh Jacobian each step
   check_flag(KINSetMaxNewtonStep(kinsol, 20.0 * std::sqrt(static_cast<double>(size))), "KINSetMaxNewtonStep");
-  jacobian_matrix = check_created(SUNDenseMatrix(length, length, context), "SUNDenseMatrix");
-  linear_solver = check_created(detail::make_eigen_dense_linear_solver(context, length), "make_eigen_dense_linear_solver");
+  jacobian_matrix = check_created(detail::make_dense_jacobian(context, length), "make_dense_jacobian");
+  linear_solver = check_created(detail::make_dense_lu_solver(context, length), "make_dense_lu_solver");
   check_flag(KINSetLinearSolver(kinsol, linear_solver, jacobian_matrix), "KINSetLinearSolver");
   check_flag(KINSetJacFn(kinsol, jacobian_callback), "KINSetJacFn");
 }
@@ -166,7 +167,10 @@ int EquilibriumSolver::Impl::run_kinsol(int strategy) {
   }
   scale[n] = 1.0 / water_total;
   // Solve, then check the flag.
-  return KINSol(kinsol, u, strategy, u_scale, f_scale);
+  const int flag = KINSol(kinsol, u, strategy, u_scale, f_scale);
+  reuse_factorization = false;  // only ever for the first step of a warm solve
+  if (flag < 0) factorization_current = false;
+  return flag;
 }
 
 // KINSOL's success, or a step-size stop whose residual is close enough to the tolerance.
@@ -248,6 +252,7 @@ void EquilibriumSolver::Impl::solve(double t, double p, std::span<const double> 
     ideal_guess(x);
   };
   if (warm) {
+    reuse_factorization = factorization_current && factored_temperature == t && factored_pressure == p;
     std::copy(previous_u.begin(), previous_u.end(), x);
     solid_present = previous_solid_present;
     gas_phase_present = previous_gas_phase_present;
@@ -257,6 +262,7 @@ void EquilibriumSolver::Impl::solve(double t, double p, std::span<const double> 
   bool converged = settle_phases();
   bool used_warm = warm;
   if (!converged && warm) {  // a poor warm start is retried cold before giving up
+    reuse_factorization = false;
     start_cold();
     converged = settle_phases();
     used_warm = false;
@@ -309,6 +315,10 @@ Speciation EquilibriumSolver::solve(double temperature, double pressure, std::sp
 }
 
 void EquilibriumSolver::reset_warm_start() noexcept { impl_->has_previous = false; }
+
+double EquilibriumSolver::jacobian_finite_difference_error(double offset) {
+  return impl_->jacobian_finite_difference_error(offset);
+}
 
 const ChemicalSystem& EquilibriumSolver::system() const noexcept { return *impl_->system; }
 
