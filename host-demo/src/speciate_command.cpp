@@ -3,6 +3,7 @@
 #include <ostream>
 
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 
 #include "component_amounts.hpp"
 #include "input_error.hpp"
@@ -10,6 +11,7 @@
 #include "protonflow/thermo/database.hpp"
 #include "protonflow/thermo/equilibrium_solver.hpp"
 #include "protonflow/thermo/errors.hpp"
+#include "protonflow/thermo/pitzer_enthalpy.hpp"
 #include "protonflow/thermo/stream_enthalpy.hpp"
 #include "protonflow/thermo/tableau.hpp"
 #include "quantity.hpp"
@@ -106,8 +108,20 @@ SpeciationReport make_report(const SolutionInput& input, const thermo::ChemicalS
     report.solutes.push_back(SoluteLabel{solute.name, solute.charge});
   }
   report.warnings = thermo::describe_warnings(speciation);
+  const auto excess = thermo::make_excess_enthalpy_model(system);
+  if (input.activity_model == thermo::ActivityModelKind::pitzer) {
+    // Solutes present above 1e-6 mol/kg that the parameter file does not cover.
+    const thermo::PitzerExcessEnthalpy& pitzer = static_cast<const thermo::PitzerExcessEnthalpy&>(*excess);
+    std::vector<std::string> uncovered;
+    for (const std::string& name : pitzer.model().species_without_parameters())
+      if (speciation.molality[system.index_of_solute(name)] >= 1e-6) uncovered.push_back(name);
+    if (!uncovered.empty())
+      report.warnings.push_back(fmt::format("the Pitzer parameters do not cover {}: only the Debye-Hückel term acts on "
+                                            "these ions (neutral ones keep γ = 1)",
+                                            fmt::join(uncovered, ", ")));
+  }
   try {
-    report.enthalpy = thermo::state_enthalpy(system, speciation);
+    report.enthalpy = thermo::state_enthalpy(system, speciation, excess.get());
   } catch (const thermo::ThermoError& error) {
     report.enthalpy_unavailable = error.what();
   }
@@ -160,7 +174,8 @@ int speciate(const SpeciateOptions& options, std::ostream& out, std::ostream& er
     thermo::EquilibriumSolver solver(system, solver_options);
     thermo::Speciation speciation;
     if (input.enthalpy) {
-      thermo::solve_at_enthalpy(solver, *input.enthalpy, input.pressure, amounts, pressures, speciation);
+      const auto excess = thermo::make_excess_enthalpy_model(system);
+      thermo::solve_at_enthalpy(solver, *input.enthalpy, input.pressure, amounts, pressures, speciation, excess.get());
     } else {
       solver.solve(input.temperature, input.pressure, amounts, pressures, speciation);
     }

@@ -1,10 +1,13 @@
 #include <catch2/catch.hpp>
 
 #include <cmath>
+#include <string>
 #include <vector>
 
 #include "protonflow/thermo/activity_model.hpp"
+#include "protonflow/thermo/activity_pitzer.hpp"
 #include "protonflow/thermo/constants.hpp"
+#include "protonflow/thermo/errors.hpp"
 #include "protonflow/thermo/water_properties.hpp"
 
 using namespace protonflow::thermo;
@@ -20,7 +23,28 @@ SoluteProperties mixture(bool equal_sizes) {
 }
 const std::vector<double> molality{0.01, 0.2, 0.05, 0.25, 0.03, 0.02};
 
-void check_derivatives(const ActivityModel& model) {
+// The same mixture with names, for the Pitzer model (both ion notations are accepted).
+SoluteProperties named_mixture() {
+  SoluteProperties p = mixture(false);
+  p.name = {"H+", "Na^+", "Ca+2", "Cl-", "SO4^2-", "CO2(aq)"};
+  return p;
+}
+
+// A parameter set exercising every kind of term, ζ and λ_nn included (values arbitrary in size).
+PitzerParameters every_term() {
+  PitzerParameters p;
+  p.binary.push_back({"Na^+", "Cl^-", {0.08, 1e-3, 0}, {0.27, 1e-3, 0}, {}, {0.0013, -1e-4, 0}});
+  p.binary.push_back({"Ca^2+", "SO4^2-", {0.2, 0, 0}, {3.2, 0, 0}, {-54, 0, 0}, {}, 1.4, 12.0});
+  p.binary.push_back({"H^+", "SO4^2-", {0.03, 0, 0}, {}, {}, {0.044, 0, 0}});
+  p.theta.push_back({"Na^+", "Ca^2+", {0.07, 0, 0}});
+  p.psi.push_back({"Na^+", "Ca^2+", "Cl^-", {-0.007, 0, 0}});
+  p.lambda.push_back({"CO2(aq)", "Na^+", {0.1, 0, 0}});
+  p.lambda.push_back({"CO2(aq)", "CO2(aq)", {0.05, 0, 0}});
+  p.zeta.push_back({"CO2(aq)", "Na^+", "Cl^-", {-0.02, 0, 0}});
+  return p;
+}
+
+void check_derivatives(const ActivityModel& model, const std::vector<double>& molality = ::molality) {
   const std::size_t n = molality.size();
   ActivityEvaluation at(n), plus(n), minus(n);
   model.evaluate(298.15, 1e5, molality, at);
@@ -43,7 +67,7 @@ void check_derivatives(const ActivityModel& model) {
 }
 
 // Gibbs–Duhem: (1/M_w) ∂ln a_w/∂m_k + Σ_i m_i ∂ln(m_i γ_i)/∂m_k = 0 for every k.
-void check_gibbs_duhem(const ActivityModel& model) {
+void check_gibbs_duhem(const ActivityModel& model, const std::vector<double>& molality = ::molality) {
   const std::size_t n = molality.size();
   ActivityEvaluation at(n);
   model.evaluate(298.15, 1e5, molality, at);
@@ -61,6 +85,12 @@ TEST_CASE("analytic activity derivatives match finite differences") {
   check_derivatives(*make_davies_model(mixture(false)));
   check_derivatives(*make_b_dot_model(mixture(false)));
   check_derivatives(*make_ideal_model(mixture(false)));
+  check_derivatives(*make_pitzer_model(named_mixture()));
+  check_derivatives(*make_pitzer_model(named_mixture(), every_term()));
+  // a brine near the model's limit, I ≈ 6 mol/kg
+  const std::vector<double> brine{0.3, 2.5, 0.8, 4.0, 0.4, 0.05};
+  check_derivatives(*make_pitzer_model(named_mixture()), brine);
+  check_derivatives(*make_pitzer_model(named_mixture(), every_term()), brine);
 }
 
 TEST_CASE("water activity obeys Gibbs-Duhem where the model has an excess Gibbs energy") {
@@ -68,22 +98,43 @@ TEST_CASE("water activity obeys Gibbs-Duhem where the model has an excess Gibbs 
   // direction of composition.
   check_gibbs_duhem(*make_davies_model(mixture(false)));
   check_gibbs_duhem(*make_ideal_model(mixture(false)));
+  check_gibbs_duhem(*make_pitzer_model(named_mixture()));
+  check_gibbs_duhem(*make_pitzer_model(named_mixture(), every_term()), {0.3, 2.5, 0.8, 4.0, 0.4, 0.05});
 }
 
-TEST_CASE("B-dot water activity obeys Gibbs-Duhem along the solution's own composition ratios") {
-  // B-dot with per-ion sizes and an uncharged ḃ I term has no excess Gibbs energy; its a_w is
-  // integrated along the ray m = λ m° (docs/activity.md), where Gibbs–Duhem must hold:
-  // (1/M_w) Σ_k m_k ∂ln a_w/∂m_k + Σ_k m_k + Σ_i Σ_k m_i m_k ∂ln γ_i/∂m_k = 0.
-  const auto model = make_b_dot_model(mixture(false));
-  const std::size_t n = molality.size();
-  ActivityEvaluation at(n);
-  model->evaluate(298.15, 1e5, molality, at);
-  double sum = 0.0;
-  for (std::size_t k = 0; k < n; ++k) {
-    sum += molality[k] * (at.d_ln_water_activity_d_molality[k] / constants::water_molar_mass + 1.0);
-    for (std::size_t i = 0; i < n; ++i) sum += molality[i] * molality[k] * at.d_ln_gamma_d_molality[i * n + k];
-  }
-  CHECK(sum == Approx(0.0).margin(1e-12));
+TEST_CASE("Pitzer water activity is the osmotic coefficient of the same excess Gibbs energy") {
+  // Σ m (φ − 1) = Σ m_k ln γ_k − G^ex/(w_w R T) (Pitzer 1991, ch. 3): checked against a finite
+  // difference of G^ex in the mass of water, −∂G^ex/∂n_w = −M_w ∂(w g)/∂w at fixed amounts.
+  const PitzerModel model(named_mixture(), every_term());
+  const std::vector<double> m{0.3, 2.5, 0.8, 4.0, 0.4, 0.05};
+  ActivityEvaluation at(m.size());
+  model.evaluate(298.15, 1e5, m, at);
+  const auto total_g = [&](double w) {
+    std::vector<double> scaled(m.size());
+    for (std::size_t k = 0; k < m.size(); ++k) scaled[k] = m[k] / w;
+    return w * model.excess_gibbs_energy(298.15, 1e5, scaled);
+  };
+  const double h = 1e-5;
+  const double d_g_d_w = (total_g(1.0 + h) - total_g(1.0 - h)) / (2 * h);
+  double total = 0.0;
+  for (double x : m) total += x;
+  // ln a_w = ln a_w(ideal) + M_w ∂(w g)/∂w
+  CHECK(at.ln_water_activity == Approx(-constants::water_molar_mass * total + constants::water_molar_mass * d_g_d_w).epsilon(1e-7));
+}
+
+TEST_CASE("Pitzer model names the species it has no parameters for") {
+  SoluteProperties p;
+  p.charge = {1, -1, 1, 0};
+  p.ion_size_angstrom = {4, 3, 4, 0};
+  p.name = {"Na+", "Cl-", "Cs+", "N2(aq)"};
+  const PitzerModel model(p, bundled_pitzer_parameters());
+  CHECK(model.species_without_parameters() == std::vector<std::string>{"Cs+", "N2(aq)"});
+  // Cs+ keeps the Debye–Hückel term alone: with no Cs–Cl parameters ln γ(Cs+) = f^γ + Cφ terms of others.
+  ActivityEvaluation out(4);
+  model.evaluate(298.15, 1e5, std::vector<double>{1e-3, 1e-3, 1e-9, 1e-9}, out);
+  CHECK(out.ln_gamma[3] == Approx(0.0).margin(1e-12));
+  SoluteProperties unnamed = mixture(false);
+  CHECK_THROWS_AS(PitzerModel(unnamed, bundled_pitzer_parameters()), ThermoError);
 }
 
 TEST_CASE("every model tends to the Debye-Hückel limiting law") {

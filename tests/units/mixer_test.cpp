@@ -167,7 +167,7 @@ TEST_CASE("mixer: the heater module offers it, with two required and two optiona
   CHECK(parameter("pressure_drop").unit == "Pa");
   CHECK(parameter("pressure_drop").default_number == 0.0);
   CHECK(parameter("pressure_drop").lower == 0.0);
-  CHECK(parameter("activity_model").choices == std::vector<std::string>{"davies", "b-dot"});
+  CHECK(parameter("activity_model").choices == std::vector<std::string>{"davies", "b-dot", "pitzer"});
   CHECK(parameter("activity_model").default_text == "davies");
   const std::vector<std::pair<std::string, std::string>> results{
       {"duty", "W"}, {"outlet_temperature", "K"}, {"outlet_ph", "1"}, {"gas_flow", "mol/s"}, {"solid_flow", "mol/s"}};
