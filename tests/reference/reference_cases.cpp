@@ -1,8 +1,10 @@
 #include "reference_cases.hpp"
 
 #include <cmath>
+#include <tuple>
 #include <fmt/format.h>
 
+#include "protonflow/thermo/activity_pitzer.hpp"
 #include "protonflow/thermo/constants.hpp"
 #include "protonflow/thermo/formula.hpp"
 #include "protonflow/thermo/water_properties.hpp"
@@ -229,6 +231,23 @@ std::vector<ReferenceCase> build_cases() {
                      "stoichiometric γ± 6–12 % below Robinson & Stokes from 0.5 to 6 mol/kg (the published aim is 5 %); "
                      "pK(HSO4-) 1.979 instead of the data's 1.99 moves it by under 1 %. The Clegg, Rard & Pitzer (1994) "
                      "parameterisation, which fits these data, is not implemented yet."});
+  }
+
+  // Apparent relative molal enthalpy L_φ = L / n(solute) of HCl from the Pitzer model's temperature
+  // derivatives (Silvester & Pitzer 1977) and A_H from the engine's water properties, kJ/mol.
+  const std::string heats = "Heats of dilution with the Pitzer model, 25 °C, kJ/mol";
+  const std::string parker = "Parker 1965, NSRDS-NBS 2, as tabulated in the CRC Handbook (read)";
+  for (const auto& [molality, water_per_acid, l_phi] : {std::tuple{1.0, 55.51, 1.695}, std::tuple{6.0, 9.251, 6.268}}) {
+    cases.push_back({heats, fmt::format("L_φ HCl, n = {} mol H2O per mol ({:.0f} mol/kg)", water_per_acid, molality),
+                     parker, l_phi, 0.05 * l_phi, [molality = molality] {
+                       thermo::SoluteProperties p;
+                       p.charge = {1, -1};
+                       p.ion_size_angstrom = {9, 3};
+                       p.name = {"H+", "Cl-"};
+                       const thermo::PitzerModel model(p, thermo::bundled_pitzer_parameters());
+                       const std::vector<double> m{molality, molality};
+                       return model.relative_enthalpy(298.15, thermo::constants::standard_atmosphere, m) / molality / 1e3;
+                     }});
   }
 
   cases.push_back({masses, "M(H2SO4)", pt, 98.0785, 1e-4, [] { return grams_per_mole("H2SO4"); }});
