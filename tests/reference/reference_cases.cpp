@@ -250,6 +250,19 @@ std::vector<ReferenceCase> build_cases() {
                      }});
   }
 
+  // Solubility in brines with the Pitzer model, 25 °C.
+  const std::string brines = "Solubility in brines with the Pitzer model, 25 °C";
+  const std::string marshall = "Marshall & Slusher 1966, J. Phys. Chem. 70, 4015 (from memory)";
+  cases.push_back({brines, "gypsum in water, mol/kg", marshall, 0.0154, 0.05 * 0.0154,
+                   [] { return gypsum_solubility(0.0, ActivityModelKind::pitzer); }});
+  cases.push_back({brines, "CO2 at 1 atm in 1 mol/kg NaCl over CO2 in water (salting-out)",
+                   "Harned & Davis 1943, J. Am. Chem. Soc. 65, 2030 (from memory)", 0.80, 0.04, [] {
+                     const double in_brine = solve_open_to({{"NaCl", 1.0}}, "CO2(g)", 101325.0, ActivityModelKind::pitzer)
+                                                 .molality("CO2(aq)");
+                     const double in_water = solve_open_to({}, "CO2(g)", 101325.0, ActivityModelKind::pitzer).molality("CO2(aq)");
+                     return in_brine / in_water;
+                   }});
+
   cases.push_back({masses, "M(H2SO4)", pt, 98.0785, 1e-4, [] { return grams_per_mole("H2SO4"); }});
   cases.push_back({masses, "M(CaSO4·2H2O)", pt, 172.1712, 1e-4, [] { return grams_per_mole("CaSO4:2H2O"); }});
   return cases;
