@@ -110,11 +110,12 @@ SpeciationReport make_report(const SolutionInput& input, const thermo::ChemicalS
   report.warnings = thermo::describe_warnings(speciation);
   const auto excess = thermo::make_excess_enthalpy_model(system);
   if (input.activity_model == thermo::ActivityModelKind::pitzer) {
-    // Solutes present above 1e-6 mol/kg that the parameter file does not cover.
+    // Solutes present above 1e-4 mol/kg that the parameter file does not cover (below that they
+    // weigh nothing in a brine's balances; HCl(aq) at 1e-6 mol/kg in an acid brine is typical).
     const thermo::PitzerExcessEnthalpy& pitzer = static_cast<const thermo::PitzerExcessEnthalpy&>(*excess);
     std::vector<std::string> uncovered;
     for (const std::string& name : pitzer.model().species_without_parameters())
-      if (speciation.molality[system.index_of_solute(name)] >= 1e-6) uncovered.push_back(name);
+      if (speciation.molality[system.index_of_solute(name)] >= 1e-4) uncovered.push_back(name);
     if (!uncovered.empty())
       report.warnings.push_back(fmt::format("the Pitzer parameters do not cover {}: only the Debye-Hückel term acts on "
                                             "these ions (neutral ones keep γ = 1)",
