@@ -208,6 +208,13 @@ std::vector<ReferenceCase> build_cases() {
                                                         ActivityModelKind::pitzer);
                      }});
   }
+  // Temperature: NaCl at 0 °C through the Silvester & Pitzer (1977) first derivatives and A_φ(T) of
+  // the engine's water properties.
+  cases.push_back({concentrated, "γ± NaCl 1 mol/kg at 0 °C, Pitzer", "Rogers & Pitzer 1982, J. Phys. Chem. Ref. Data 11, 15",
+                   0.640, 0.03 * 0.640, [] {
+                     const ProbeResult r = solve_recipe({{"NaCl", 1.0}}, ActivityModelKind::pitzer, 273.15);
+                     return std::pow(10.0, 0.5 * (r.log10_gamma("Na+") + r.log10_gamma("Cl-")));
+                   }});
   // Osmotic coefficient φ = −ln a_w / (M_w ν m).
   for (const auto& [molality, phi] : {std::pair{1.0, 0.936}, std::pair{3.0, 1.045}, std::pair{6.0, 1.271}}) {
     cases.push_back({concentrated, fmt::format("φ NaCl {} mol/kg, Pitzer", molality), rs_conc, phi, 0.01 * phi,

@@ -1,5 +1,7 @@
 #include <catch2/catch.hpp>
 
+#include <boost/math/quadrature/exp_sinh.hpp>
+
 #include <cmath>
 #include <string>
 #include <vector>
@@ -135,6 +137,29 @@ TEST_CASE("Pitzer model names the species it has no parameters for") {
   CHECK(out.ln_gamma[3] == Approx(0.0).margin(1e-12));
   SoluteProperties unnamed = mixture(false);
   CHECK_THROWS_AS(PitzerModel(unnamed, bundled_pitzer_parameters()), ThermoError);
+}
+
+TEST_CASE("Pitzer 1975 J(x) approximation against its defining integral") {
+  // J(x) = (1/x) ∫₀^∞ [1 + q + q²/2 − e^q] y² dy, q = −(x/y) e^−y (Pitzer 1975, J. Solution Chem. 4,
+  // 249, eq. 43), by Boost's exp-sinh quadrature; Pitzer gives his eq. 47 as good to about 1 %.
+  boost::math::quadrature::exp_sinh<double> integrator;
+  for (const double x : {0.5, 1.0, 2.0, 5.0, 10.0, 50.0, 100.0}) {
+    const auto integrand = [x](double y) {
+      const double q = -(x / y) * std::exp(-y);
+      // [1 + q + q²/2 − e^q] y²: the series −q³/6 (1 + q/4) where q is small; elsewhere term by term
+      // with q y = −x e^−y, so that nothing overflows as y → 0
+      if (std::abs(q) < 1e-3) return -(q * q * q / 6.0) * (1.0 + q / 4.0) * y * y;
+      return y * y * (1.0 - std::exp(q)) - x * y * std::exp(-y) + 0.5 * x * x * std::exp(-2.0 * y);
+    };
+    const double exact = integrator.integrate(integrand) / x;
+    INFO("x = " << x);
+    CHECK(pitzer_1975_j(x)[0] == Approx(exact).epsilon(0.012));
+    // derivatives of the approximation by central differences
+    const double h = 1e-4 * x;
+    CHECK(pitzer_1975_j(x)[1] == Approx((pitzer_1975_j(x + h)[0] - pitzer_1975_j(x - h)[0]) / (2 * h)).epsilon(1e-6));
+    CHECK(pitzer_1975_j(x)[2] == Approx((pitzer_1975_j(x + h)[1] - pitzer_1975_j(x - h)[1]) / (2 * h)).epsilon(1e-5));
+  }
+  CHECK(pitzer_1975_j(0.0)[0] == 0.0);
 }
 
 TEST_CASE("every model tends to the Debye-Hückel limiting law") {

@@ -377,6 +377,11 @@ double PitzerModel::relative_enthalpy(double temperature, double pressure, std::
   return -constants::gas_constant * temperature * temperature * (up - down) / (2.0 * step);
 }
 
+std::array<double, 3> pitzer_1975_j(double x) {
+  const Curve j = pitzer_j(x);
+  return {j.value, j.first, j.second};
+}
+
 std::unique_ptr<ActivityModel> make_pitzer_model(SoluteProperties solutes, const PitzerParameters& parameters) {
   return std::make_unique<PitzerModel>(std::move(solutes), parameters);
 }

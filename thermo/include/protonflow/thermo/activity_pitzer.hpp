@@ -3,6 +3,7 @@
 // species it has no parameters for. Equations: docs/activity.md.
 #pragma once
 
+#include <array>
 #include <memory>
 #include <span>
 #include <string>
@@ -40,6 +41,10 @@ class PitzerModel final : public ActivityModel {
   struct Impl;
   std::unique_ptr<Impl> impl_;
 };
+
+// J(x) of the unsymmetrical mixing term Eθ by Pitzer's (1975) approximation, eq. 47, with its first
+// and second derivatives in x: {J, dJ/dx, d²J/dx²}. Zero for x ≤ 0.
+std::array<double, 3> pitzer_1975_j(double x);
 
 std::unique_ptr<ActivityModel> make_pitzer_model(SoluteProperties solutes,
                                                  const PitzerParameters& parameters = bundled_pitzer_parameters());
