@@ -3,7 +3,6 @@
 #include <ostream>
 
 #include <fmt/format.h>
-#include <fmt/ranges.h>
 
 #include "component_amounts.hpp"
 #include "input_error.hpp"
@@ -11,6 +10,7 @@
 #include "protonflow/thermo/database.hpp"
 #include "protonflow/thermo/equilibrium_solver.hpp"
 #include "protonflow/thermo/errors.hpp"
+#include "protonflow/thermo/pitzer_coverage.hpp"
 #include "protonflow/thermo/pitzer_enthalpy.hpp"
 #include "protonflow/thermo/stream_enthalpy.hpp"
 #include "protonflow/thermo/tableau.hpp"
@@ -109,18 +109,7 @@ SpeciationReport make_report(const SolutionInput& input, const thermo::ChemicalS
   }
   report.warnings = thermo::describe_warnings(speciation);
   const auto excess = thermo::make_excess_enthalpy_model(system);
-  if (input.activity_model == thermo::ActivityModelKind::pitzer) {
-    // Solutes present above 1e-4 mol/kg that the parameter file does not cover (below that they
-    // weigh nothing in a brine's balances; HCl(aq) at 1e-6 mol/kg in an acid brine is typical).
-    const thermo::PitzerExcessEnthalpy& pitzer = static_cast<const thermo::PitzerExcessEnthalpy&>(*excess);
-    std::vector<std::string> uncovered;
-    for (const std::string& name : pitzer.model().species_without_parameters())
-      if (speciation.molality[system.index_of_solute(name)] >= 1e-4) uncovered.push_back(name);
-    if (!uncovered.empty())
-      report.warnings.push_back(fmt::format("the Pitzer parameters do not cover {}: only the Debye-Hückel term acts on "
-                                            "these ions (neutral ones keep γ = 1)",
-                                            fmt::join(uncovered, ", ")));
-  }
+  for (std::string& line : thermo::describe_pitzer_coverage(system, speciation)) report.warnings.push_back(std::move(line));
   try {
     report.enthalpy = thermo::state_enthalpy(system, speciation, excess.get());
   } catch (const thermo::ThermoError& error) {
