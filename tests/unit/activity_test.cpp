@@ -124,6 +124,27 @@ TEST_CASE("Pitzer water activity is the osmotic coefficient of the same excess G
   CHECK(at.ln_water_activity == Approx(-constants::water_molar_mass * total + constants::water_molar_mass * d_g_d_w).epsilon(1e-7));
 }
 
+TEST_CASE("Pitzer relative partial molal enthalpies are the derivatives of the relative enthalpy") {
+  // L̄_i = ∂L/∂n_i at constant water (per kg: ∂(L/w)/∂m_i), checked by central differences of the
+  // model's own L; and Euler: Σ m_i L̄_i + L̄_w / M_w = L/w.
+  const PitzerModel model(named_mixture(), every_term());
+  const std::vector<double> m{0.3, 2.5, 0.8, 4.0, 0.4, 0.05};
+  std::vector<double> partial(m.size());
+  const double water = model.relative_partial_enthalpies(310.0, 1e5, m, partial);
+  double euler = water / constants::water_molar_mass;
+  for (std::size_t k = 0; k < m.size(); ++k) {
+    auto up = m, down = m;
+    const double h = 1e-4 * m[k];
+    up[k] += h;
+    down[k] -= h;
+    const double numeric = (model.relative_enthalpy(310.0, 1e5, up) - model.relative_enthalpy(310.0, 1e5, down)) / (2 * h);
+    INFO("solute " << k);
+    CHECK(partial[k] == Approx(numeric).epsilon(1e-5).margin(1e-6));
+    euler += m[k] * partial[k];
+  }
+  CHECK(euler == Approx(model.relative_enthalpy(310.0, 1e5, m)).epsilon(1e-10));
+}
+
 TEST_CASE("Pitzer model names the species it has no parameters for") {
   SoluteProperties p;
   p.charge = {1, -1, 1, 0};

@@ -377,6 +377,28 @@ double PitzerModel::relative_enthalpy(double temperature, double pressure, std::
   return -constants::gas_constant * temperature * temperature * (up - down) / (2.0 * step);
 }
 
+double PitzerModel::relative_partial_enthalpies(double temperature, double pressure, std::span<const double> m,
+                                                std::span<double> solutes) const {
+  // Central differences over ±0.05 K of ln γ_i = ∂g/∂m_i and of g (as relative_enthalpy).
+  constexpr double step = 0.05;
+  const Impl& d = *impl_;
+  const std::size_t n = m.size();
+  d.set_temperature(temperature + step, pressure);
+  const double g_up = d.evaluate_g(m, nullptr, nullptr);
+  for (std::size_t k = 0; k < n; ++k) solutes[k] = d.gradient[k];
+  d.set_temperature(temperature - step, pressure);
+  const double g_down = d.evaluate_g(m, nullptr, nullptr);
+  const double factor = -constants::gas_constant * temperature * temperature / (2.0 * step);
+  double weighted = 0.0;  // Σ m_k ∂ln γ_k/∂T × 2 step
+  for (std::size_t k = 0; k < n; ++k) {
+    const double difference = solutes[k] - d.gradient[k];
+    weighted += m[k] * difference;
+    solutes[k] = factor * difference;
+  }
+  // ln a_w = −M_w (Σm + Σ m_k ln γ_k − g)
+  return factor * -constants::water_molar_mass * (weighted - (g_up - g_down));
+}
+
 std::array<double, 3> pitzer_1975_j(double x) {
   const Curve j = pitzer_j(x);
   return {j.value, j.first, j.second};

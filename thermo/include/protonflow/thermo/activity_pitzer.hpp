@@ -32,6 +32,11 @@ class PitzerModel final : public ActivityModel {
   // Relative enthalpy of the solution per kilogram of water, L / w_w = −R T² ∂(G^ex/(w_w R T))/∂T
   // at constant molalities, J/kg (the heat released on dilution to infinity, per kg of water).
   double relative_enthalpy(double temperature, double pressure, std::span<const double> molality) const;
+  // Relative partial molal enthalpies at constant molalities, J/mol: of each solute,
+  // L̄_i = −R T² ∂ln γ_i/∂T, into solutes (sized as the molalities), and of water,
+  // L̄_w = −R T² ∂ln a_w/∂T, returned. Σ m_i L̄_i + L̄_w / M_w = relative_enthalpy (Euler).
+  double relative_partial_enthalpies(double temperature, double pressure, std::span<const double> molality,
+                                     std::span<double> solutes) const;
   // Names of solutes the model has no parameters for: a charged one with no binary parameters
   // against any counter-ion of the system, a neutral one with no λ. Only the Debye–Hückel term
   // (charged) or nothing (neutral, γ = 1) acts on them.
