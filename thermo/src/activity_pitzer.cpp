@@ -102,15 +102,17 @@ enum class PairKind { cation_anion, same_sign, neutral };
 struct PairTerm {
   std::size_t i, j;
   PairKind kind;
-  // parameters at the cached temperature
-  const PitzerBinary* binary = nullptr;
-  const PitzerCoefficient* coefficient = nullptr;  // θ or λ (may be null for a pure Eθ pair)
+  // the parameters as functions of T, copied so that the model outlives the parameter set it was built from
+  PitzerCoefficient beta0_t{}, beta1_t{}, beta2_t{}, c_phi_t{};  // cation–anion pairs
+  double alpha1 = 2.0, alpha2 = 0.0;
+  PitzerCoefficient constant_t{};  // θ or λ (zero for a pair with Eθ alone)
+  // the same at the cached temperature; c = Cφ/(2√|z_c z_a|)
   double beta0 = 0, beta1 = 0, beta2 = 0, c = 0, constant = 0;
 };
 
 struct TripleTerm {
   std::size_t i, j, k;
-  const PitzerCoefficient* coefficient;
+  PitzerCoefficient coefficient;
   double value = 0;
 };
 
@@ -137,17 +139,17 @@ struct PitzerModel::Impl {
     // A_φ = A ln10 / 3, A the Debye–Hückel constant of the engine's water properties (Pitzer 1991, eq. 3.9).
     a_phi = debye_huckel_parameters(temperature, pressure).a * constants::ln10 / 3.0;
     for (PairTerm& p : pairs) {
-      if (p.binary) {
-        p.beta0 = p.binary->beta0.at(temperature);
-        p.beta1 = p.binary->beta1.at(temperature);
-        p.beta2 = p.binary->beta2.at(temperature);
+      if (p.kind == PairKind::cation_anion) {
+        p.beta0 = p.beta0_t.at(temperature);
+        p.beta1 = p.beta1_t.at(temperature);
+        p.beta2 = p.beta2_t.at(temperature);
         // C = Cφ / (2 √|z_c z_a|) (Pitzer 1991, eq. 3.63)
-        p.c = p.binary->c_phi.at(temperature) /
+        p.c = p.c_phi_t.at(temperature) /
               (2.0 * std::sqrt(std::abs(static_cast<double>(solutes.charge[p.i] * solutes.charge[p.j]))));
       }
-      p.constant = p.coefficient ? p.coefficient->at(temperature) : 0.0;
+      p.constant = p.constant_t.at(temperature);
     }
-    for (TripleTerm& t : triples) t.value = t.coefficient->at(temperature);
+    for (TripleTerm& t : triples) t.value = t.coefficient.at(temperature);
     cached_temperature = temperature;
   }
 
@@ -158,11 +160,11 @@ struct PitzerModel::Impl {
         // P = 2B, B = β⁰ + β¹ g(α₁√I) + β² g(α₂√I)
         Curve b{p.beta0, 0.0, 0.0};
         if (p.beta1 != 0.0) {
-          const Curve g = pitzer_g_of_ionic_strength(p.binary->alpha1, ionic_strength);
+          const Curve g = pitzer_g_of_ionic_strength(p.alpha1, ionic_strength);
           b.value += p.beta1 * g.value, b.first += p.beta1 * g.first, b.second += p.beta1 * g.second;
         }
         if (p.beta2 != 0.0) {
-          const Curve g = pitzer_g_of_ionic_strength(p.binary->alpha2, ionic_strength);
+          const Curve g = pitzer_g_of_ionic_strength(p.alpha2, ionic_strength);
           b.value += p.beta2 * g.value, b.first += p.beta2 * g.first, b.second += p.beta2 * g.second;
         }
         return {2.0 * b.value, 2.0 * b.first, 2.0 * b.second};
@@ -293,7 +295,8 @@ PitzerModel::PitzerModel(SoluteProperties solutes, const PitzerParameters& param
     const auto c = find(b.cation), a = find(b.anion);
     if (c < 0 || a < 0) continue;
     PairTerm term{static_cast<std::size_t>(c), static_cast<std::size_t>(a), PairKind::cation_anion};
-    term.binary = &b;
+    term.beta0_t = b.beta0, term.beta1_t = b.beta1, term.beta2_t = b.beta2, term.c_phi_t = b.c_phi;
+    term.alpha1 = b.alpha1, term.alpha2 = b.alpha2;
     d.pairs.push_back(term);
     covered[static_cast<std::size_t>(c)] = covered[static_cast<std::size_t>(a)] = true;
   }
@@ -308,14 +311,14 @@ PitzerModel::PitzerModel(SoluteProperties solutes, const PitzerParameters& param
         if ((t.first == ni && t.second == nj) || (t.first == nj && t.second == ni)) theta = &t.value;
       if (!theta && zi == zj) continue;
       PairTerm term{i, j, PairKind::same_sign};
-      term.coefficient = theta;
+      if (theta) term.constant_t = *theta;
       d.pairs.push_back(term);
     }
   for (const PitzerPair& l : parameters.lambda) {
     const auto a = find(l.first), b = find(l.second);
     if (a < 0 || b < 0) continue;
     PairTerm term{static_cast<std::size_t>(std::min(a, b)), static_cast<std::size_t>(std::max(a, b)), PairKind::neutral};
-    term.coefficient = &l.value;
+    term.constant_t = l.value;
     d.pairs.push_back(term);
     covered[static_cast<std::size_t>(a)] = true;
   }
@@ -323,7 +326,7 @@ PitzerModel::PitzerModel(SoluteProperties solutes, const PitzerParameters& param
     for (const PitzerTriple& t : *list) {
       const auto a = find(t.first), b = find(t.second), c = find(t.third);
       if (a < 0 || b < 0 || c < 0) continue;
-      d.triples.push_back({static_cast<std::size_t>(a), static_cast<std::size_t>(b), static_cast<std::size_t>(c), &t.value});
+      d.triples.push_back({static_cast<std::size_t>(a), static_cast<std::size_t>(b), static_cast<std::size_t>(c), t.value});
     }
   for (std::size_t k = 0; k < n; ++k)
     if (!covered[k]) d.without_parameters.push_back(solutes.name[k]);
