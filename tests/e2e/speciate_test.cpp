@@ -251,8 +251,25 @@ TEST_CASE("a solution beyond the activity model's range is answered with a warni
   const YAML::Node report = YAML::Load(run.out);
   REQUIRE(report["warnings"].size() == 1);
   CHECK_THAT(report["warnings"][0].as<std::string>(), Catch::Contains("extrapolated"));
+  CHECK_THAT(report["warnings"][0].as<std::string>(), Catch::Contains("the pitzer model serves"));
   const ProgramRun table = speciate(file, {"--table"});
   CHECK_THAT(table.out, Catch::Contains("WARNING"));
+  require_balances_close(report);
+}
+
+TEST_CASE("a brine of I = 4.6 mol/kg is within the Pitzer model's range", "[speciate][pitzer]") {
+  const YAML::Node report = speciate_report(cases_directory / "brine-pitzer.yaml");
+  CHECK(report["activity_model"].as<std::string>() == "pitzer");
+  REQUIRE(report["warnings"]);
+  CHECK(report["warnings"].size() == 0);
+  CHECK(number(report["ionic_strength_mol_per_kg"]) == Approx(4.6).epsilon(0.01));
+  require_balances_close(report);
+}
+
+TEST_CASE("the Pitzer model names the ions it has no parameters for", "[speciate][pitzer]") {
+  const YAML::Node report = speciate_report(cases_directory / "zinc-brine-pitzer.yaml");
+  REQUIRE(report["warnings"].size() == 1);
+  CHECK_THAT(report["warnings"][0].as<std::string>(), Catch::Contains("do not cover") && Catch::Contains("Zn+2"));
   require_balances_close(report);
 }
 

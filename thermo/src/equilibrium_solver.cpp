@@ -94,6 +94,7 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
       if (s.stoichiometry[b] != 0.0) terms[i].push_back({b, s.stoichiometry[b]});
     properties.charge.push_back(s.charge);
     properties.ion_size_angstrom.push_back(s.ion_size_angstrom);
+    properties.name.push_back(s.name);
   }
   activity = make_activity_model(chemical_system.options().activity, std::move(properties));
 
@@ -288,8 +289,12 @@ std::vector<std::string> describe_warnings(const Speciation& s) {
   std::vector<std::string> text;
   if (s.warnings & ionic_strength_beyond_model)
     text.push_back(fmt::format("ionic strength {:.3g} mol/kg is beyond the {} activity model's range (about {:g} mol/kg): "
-                               "activities, and pH with them, are extrapolated",
-                               s.ionic_strength, s.activity_model_name, s.activity_model_limit));
+                               "activities, and pH with them, are extrapolated; {}",
+                               s.ionic_strength, s.activity_model_name, s.activity_model_limit,
+                               s.ionic_strength <= 6.0 && std::string_view(s.activity_model_name) != "pitzer"
+                                   ? "the pitzer model serves to about 6 mol/kg"
+                                   : "no ion-interaction model serves here; a concentrated acid or base needs a "
+                                     "full-range acid-water property model"));
   return text;
 }
 
