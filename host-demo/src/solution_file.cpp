@@ -193,15 +193,9 @@ std::vector<ComponentEntry> read_components(const std::string& file, const Entry
   return components;
 }
 
-YAML::Node load_yaml(const std::string& file) {
-  std::ifstream stream(file);
-  if (!stream) {
-    throw InputError(SourcePosition{file, 0, 0}, "cannot open the file");
-  }
-  std::ostringstream text;
-  text << stream.rdbuf();
+YAML::Node load_yaml(const std::string& text, const std::string& file) {
   try {
-    return YAML::Load(text.str());
+    return YAML::Load(text);
   } catch (const YAML::ParserException& error) {
     throw InputError(position_of(file, error.mark), fmt::format("invalid YAML: {}", error.msg));
   }
@@ -229,7 +223,17 @@ std::string_view to_string(thermo::ActivityModelKind kind) noexcept {
 }
 
 SolutionInput read_solution_file(const std::string& file, const UnitConverter& units) {
-  const YAML::Node document = load_yaml(file);
+  std::ifstream stream(file);
+  if (!stream) {
+    throw InputError(SourcePosition{file, 0, 0}, "cannot open the file");
+  }
+  std::ostringstream text;
+  text << stream.rdbuf();
+  return parse_solution(text.str(), file, units);
+}
+
+SolutionInput parse_solution(const std::string& text, const std::string& file, const UnitConverter& units) {
+  const YAML::Node document = load_yaml(text, file);
   const SourcePosition file_start{file, 1, 1};
   if (!document.IsMap()) {
     throw InputError(document.IsNull() ? file_start : position_of(file, document),
