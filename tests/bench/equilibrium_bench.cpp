@@ -26,9 +26,9 @@ const Database& database() {
 }
 
 // One component per element total; the proton balance follows from charge.
-ChemicalSystem benchmark_system() {
+ChemicalSystem benchmark_system(ActivityModelKind model = ActivityModelKind::davies) {
   SystemOptions options;
-  options.activity = ActivityModelKind::davies;
+  options.activity = model;
   options.secondary_species = {"OH^-", "HSO4^-", "HCO3^-", "CO2(aq)", "NH3(aq)", "CaSO4(aq)", "NaSO4^-", "CaCO3(aq)"};
   return ChemicalSystem(database(), {"H2O", "NaOH", "HCl", "H2SO4", "CO2", "NH3", "Ca(OH)2"}, options);
 }
@@ -113,6 +113,40 @@ BENCHMARK(speciation_warm_nearby)->Unit(benchmark::kMicrosecond);
 // difference between the two runs is 1000 warm solves, set-up and the first cold solve cancel.
 BENCHMARK(speciation_warm_nearby)->Iterations(10)->Unit(benchmark::kMicrosecond);
 BENCHMARK(speciation_warm_nearby)->Iterations(1010)->Unit(benchmark::kMicrosecond);
+
+// The same steady warm solving with each activity model, in the benchmark's dilute solution and in
+// a concentrated brine (3 mol/kg NaCl with sulfate, carbonate, ammonia and calcium; I ≈ 3.5 mol/kg,
+// beyond Davies' range, which the result warns of), where the activity terms dominate the
+// Jacobian. Another activity model is one more pair of lines here.
+void speciation_warm_nearby_with(benchmark::State& state, ActivityModelKind model, bool brine) {
+  const ChemicalSystem system = benchmark_system(model);
+  EquilibriumSolver solver(system);
+  const std::vector<double> base = brine ? std::vector<double>{1.0 / constants::water_molar_mass, 3.0, 3.2, 0.3, 0.05, 0.1, 0.01}
+                                         : draw_cases(1).front();
+  auto nearby = base;
+  for (std::size_t c = 1; c < nearby.size(); ++c) nearby[c] *= 1.01;
+  Speciation out;
+  solver.solve(298.15, constants::standard_atmosphere, base, out);
+  bool flip = false;
+  for (auto _ : state) {
+    solver.solve(298.15, constants::standard_atmosphere, flip ? base : nearby, out);
+    flip = !flip;
+    benchmark::DoNotOptimize(out.ph);
+  }
+  state.counters["newton_iterations"] = static_cast<double>(out.iterations);
+}
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, ideal, ActivityModelKind::ideal, false)->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, b_dot, ActivityModelKind::b_dot, false)->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_davies, ActivityModelKind::davies, true)->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_b_dot, ActivityModelKind::b_dot, true)->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, ideal, ActivityModelKind::ideal, false)->Iterations(10);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, ideal, ActivityModelKind::ideal, false)->Iterations(1010);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, b_dot, ActivityModelKind::b_dot, false)->Iterations(10);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, b_dot, ActivityModelKind::b_dot, false)->Iterations(1010);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_davies, ActivityModelKind::davies, true)->Iterations(10);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_davies, ActivityModelKind::davies, true)->Iterations(1010);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_b_dot, ActivityModelKind::b_dot, true)->Iterations(10);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_b_dot, ActivityModelKind::b_dot, true)->Iterations(1010);
 
 // Cold solving through the drawn cases.
 void speciation_cold(benchmark::State& state) {

@@ -135,6 +135,8 @@ void EquilibriumSolver::Impl::jacobian(const double* x, SUNMatrix jm) {
   factorization_current = true;  // the linear solver factors this matrix next
   factored_temperature = temperature;
   factored_pressure = pressure;
+  std::copy(solid_present.begin(), solid_present.end(), factored_solid_present.begin());
+  factored_gas_phase_present = gas_phase_present;
   double* data = detail::dense_jacobian_data(jm);  // column-major, size × size
   std::fill(data, data + size * size, 0.0);
   const auto at = [&](std::size_t row, std::size_t column) -> double& { return data[column * size + row]; };

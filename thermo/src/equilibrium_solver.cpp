@@ -78,6 +78,7 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
   solid_scale.assign(allowed.size(), 1.0);
   solid_present.assign(allowed.size(), 0);
   previous_solid_present.assign(allowed.size(), 0);
+  factored_solid_present.assign(allowed.size(), 0);
   maximum_rounds = 4 * (allowed.size() + 1) + 8;
   tried_sets.reserve(maximum_rounds * (allowed.size() + 1));
   previous_u.assign(size, 0.0);
@@ -239,21 +240,26 @@ void EquilibriumSolver::Impl::solve(double t, double p, std::span<const double> 
                                   t, t - 273.15, system->minimum_temperature(), system->maximum_temperature()));
   if (!std::isfinite(p) || p <= 0.0)
     throw ThermoError(ErrorKind::bad_input, fmt::format("pressure {} Pa is not a positive number", p));
+  const bool same_conditions = t == temperature && p == pressure;
   temperature = t;
   pressure = p;
-  evaluation_valid = false;  // γ and a_w depend on T and on which solutes are present
   set_totals(amounts, open_gas_pressures);
   update_log_k(t, p);
 
   double* x = N_VGetArrayPointer(u);
   const bool warm = has_previous && previous_active == active;
+  // γ and a_w depend on T, P and the molalities alone: the evaluation at the previous answer serves
+  // a warm start from it at the same T and P (evaluate_molalities checks that u is the same).
+  if (!(warm && same_conditions)) evaluation_valid = false;
   const auto start_cold = [&] {
     std::fill(solid_present.begin(), solid_present.end(), 0);
     gas_phase_present = false;
     ideal_guess(x);
   };
   if (warm) {
-    reuse_factorization = factorization_current && factored_temperature == t && factored_pressure == p;
+    reuse_factorization = factorization_current && factored_temperature == t && factored_pressure == p &&
+                          factored_solid_present == previous_solid_present &&
+                          factored_gas_phase_present == previous_gas_phase_present;
     std::copy(previous_u.begin(), previous_u.end(), x);
     solid_present = previous_solid_present;
     gas_phase_present = previous_gas_phase_present;

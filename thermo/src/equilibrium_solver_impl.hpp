@@ -116,6 +116,8 @@ struct EquilibriumSolver::Impl {
   // KINSOL call may start with it (a warm start of the same phase set: docs/equilibrium.md).
   bool factorization_current = false, reuse_factorization = false;
   double factored_temperature = -1.0, factored_pressure = -1.0;
+  std::vector<char> factored_solid_present;  // the phase set the LU's Jacobian was evaluated for
+  bool factored_gas_phase_present = false;
   int last_flag = 0;
   std::string kinsol_message;
   std::vector<double> evaluated_at;  // the u of the current molalities and activity evaluation
