@@ -285,7 +285,7 @@ PitzerModel::PitzerModel(SoluteProperties solutes, const PitzerParameters& param
     throw ThermoError(ErrorKind::bad_input, "the Pitzer model needs the name of every solute (SoluteProperties::name)");
   d.maximum_ionic_strength = parameters.maximum_ionic_strength;
   std::unordered_map<std::string, std::size_t> index;
-  for (std::size_t k = 0; k < n; ++k) index.emplace(canonical_species_name(solutes.name[k]), k);
+  for (std::size_t k = 0; k < n; ++k) index.emplace(solutes.name[k], k);
   const auto find = [&](const std::string& name) -> std::ptrdiff_t {
     const auto it = index.find(name);
     return it == index.end() ? -1 : static_cast<std::ptrdiff_t>(it->second);
@@ -306,7 +306,8 @@ PitzerModel::PitzerModel(SoluteProperties solutes, const PitzerParameters& param
       const int zi = solutes.charge[i], zj = solutes.charge[j];
       if (zi == 0 || zj == 0 || (zi > 0) != (zj > 0)) continue;
       const PitzerCoefficient* theta = nullptr;
-      const std::string ni = canonical_species_name(solutes.name[i]), nj = canonical_species_name(solutes.name[j]);
+      const std::string& ni = solutes.name[i];
+      const std::string& nj = solutes.name[j];
       for (const PitzerPair& t : parameters.theta)
         if ((t.first == ni && t.second == nj) || (t.first == nj && t.second == ni)) theta = &t.value;
       if (!theta && zi == zj) continue;

@@ -3,31 +3,19 @@
 
 #include <yaml-cpp/yaml.h>
 
-#include <cctype>
 #include <fmt/format.h>
 #include <set>
 
 #include "protonflow/thermo/constants.hpp"
 #include "protonflow/thermo/database.hpp"
 #include "protonflow/thermo/errors.hpp"
+#include "protonflow/thermo/formula.hpp"
 
 namespace protonflow::thermo {
 
 double PitzerCoefficient::at(double temperature) const noexcept {
   const double dt = temperature - constants::reference_temperature;
   return value + dt * (d_dT + 0.5 * dt * d2_dT2);
-}
-
-std::string canonical_species_name(std::string_view name) {
-  if (name.find('^') != std::string_view::npos || name.empty()) return std::string(name);
-  // Old notation: a trailing sign, then an optional charge number ("Ca+2", "SO4-2", "H+").
-  std::size_t end = name.size();
-  while (end > 0 && std::isdigit(static_cast<unsigned char>(name[end - 1]))) --end;
-  if (end == 0 || (name[end - 1] != '+' && name[end - 1] != '-')) return std::string(name);
-  const char sign = name[end - 1];
-  const std::string_view number = name.substr(end);
-  if (end == 1) return std::string(name);
-  return fmt::format("{}^{}{}", name.substr(0, end - 1), number == "1" ? "" : number, sign);
 }
 
 namespace {
@@ -51,7 +39,7 @@ class ParameterFileReader {
     if (root["maximum_ionic_strength"]) p.maximum_ionic_strength = sourced(root["maximum_ionic_strength"]);
     if (const auto pairs = root["folded_ion_pairs"]) {
       if (!pairs.IsSequence()) fail(pairs, "'folded_ion_pairs' is a list of species names");
-      for (const auto& name : pairs) p.folded_ion_pairs.push_back(name.as<std::string>());
+      for (const auto& name : pairs) p.folded_ion_pairs.push_back(species_name(name));
     }
     for (const auto& node : section(root, "binary")) p.binary.push_back(read_binary(node));
     for (const auto& node : section(root, "theta")) p.theta.push_back(read_pair(node, "theta"));
@@ -91,12 +79,21 @@ class ParameterFileReader {
     }
   }
 
+  // A species name in the project's notation; the older one ("Ca+2") is refused as the loader refuses it.
+  std::string species_name(const YAML::Node& node) const {
+    if (!node.IsScalar()) fail(node, "a species name is a single word, e.g. Ca^2+");
+    const auto name = node.as<std::string>();
+    if (const auto replacement = notation_replacement(name))
+      fail(node, fmt::format("'{}' is the older ion notation: write '{}'", name, *replacement));
+    return name;
+  }
+
   std::vector<std::string> species(const YAML::Node& node, std::size_t count) const {
     const YAML::Node list = node["species"];
     if (!list || !list.IsSequence() || list.size() != count)
       fail(node, fmt::format("an entry needs 'species', a list of {} names", count));
     std::vector<std::string> names;
-    for (const auto& name : list) names.push_back(canonical_species_name(name.as<std::string>()));
+    for (const auto& name : list) names.push_back(species_name(name));
     return names;
   }
 
