@@ -235,5 +235,9 @@ TEST_CASE("the Pitzer parameter file: bundled set read, bad entries refused with
   refused("no-source", "binary:\n  - species: [Na^+, Cl^-]\n    beta0: {value: 0.0765}\n", 3, 12, "'value' and 'source'");
   refused("anion-first", "binary:\n  - species: [Cl^-, Na^+]\n    beta0: {value: 0.0765, source: x}\n", 2, 14, "a cation then an anion");
   refused("unknown-key", "binary:\n  - species: [Na^+, Cl^-]\n    beta3: {value: 1, source: x}\n", 3, 5, "unknown key 'beta3'");
+  refused("twice", "theta:\n  - {species: [Na^+, K^+], theta: {value: 1, source: x}}\n  - {species: [K^+, Na^+], theta: {value: 1, source: x}}\n",
+          3, 5, "theta of K^+ Na^+ is listed twice");
+  refused("lambda-ion-first", "lambda:\n  - {species: [Na^+, CO2(aq)], lambda: {value: 1, source: x}}\n", 2, 15, "a neutral species first");
+  refused("psi-signs", "psi:\n  - {species: [Na^+, Cl^-, K^+], psi: {value: 1, source: x}}\n", 2, 15, "two different ions of one sign");
   std::filesystem::remove_all(directory);
 }

@@ -119,21 +119,45 @@ class ParameterFileReader {
     b.alpha2 = node["alpha2"] ? sourced(node["alpha2"]) : 12.0;
     if (charge_sign(names[0]) <= 0 || charge_sign(names[1]) >= 0)
       fail(node["species"], fmt::format("a binary entry lists a cation then an anion, not {} and {}", names[0], names[1]));
+    once(node, "binary", names[0] + " " + names[1]);
     return b;
   }
 
+  // θ: two ions of one sign; λ: a neutral species first, then any species.
   PitzerPair read_pair(const YAML::Node& node, const std::string& key) {
     check_keys(node, {"species", key, key + "_dT", key + "_dT2", "note"});
     const auto names = species(node, 2);
     if (!node[key]) fail(node, fmt::format("the entry needs '{}'", key));
+    const int a = charge_sign(names[0]), b = charge_sign(names[1]);
+    if (key == "theta" && (a == 0 || a != b || names[0] == names[1]))
+      fail(node["species"], fmt::format("theta is for two different ions of the same sign, not {} and {}", names[0], names[1]));
+    if (key == "lambda" && a != 0)
+      fail(node["species"], fmt::format("lambda lists a neutral species first, not {}", names[0]));
+    once(node, key, names[0] < names[1] || key == "lambda" ? names[0] + " " + names[1] : names[1] + " " + names[0]);
     return {names[0], names[1], coefficient(node, key)};
   }
 
+  // ψ: two different ions of one sign, then one of the other; ζ: a neutral, a cation, an anion.
   PitzerTriple read_triple(const YAML::Node& node, const std::string& key) {
     check_keys(node, {"species", key, key + "_dT", key + "_dT2", "note"});
     const auto names = species(node, 3);
     if (!node[key]) fail(node, fmt::format("the entry needs '{}'", key));
+    const int a = charge_sign(names[0]), b = charge_sign(names[1]), c = charge_sign(names[2]);
+    if (key == "psi" && (a == 0 || a != b || c != -a || names[0] == names[1]))
+      fail(node["species"], fmt::format("psi lists two different ions of one sign, then one of the other, not {}, {}, {}",
+                                        names[0], names[1], names[2]));
+    if (key == "zeta" && (a != 0 || b <= 0 || c >= 0))
+      fail(node["species"],
+           fmt::format("zeta lists a neutral species, a cation and an anion, not {}, {}, {}", names[0], names[1], names[2]));
+    const bool ordered = names[0] < names[1] || key == "zeta";
+    once(node, key, (ordered ? names[0] + " " + names[1] : names[1] + " " + names[0]) + " " + names[2]);
     return {names[0], names[1], names[2], coefficient(node, key)};
+  }
+
+  // A parameter listed twice would be counted twice.
+  void once(const YAML::Node& node, const std::string& section, const std::string& key) {
+    if (!seen_.insert(section + ": " + key).second)
+      fail(node, fmt::format("{} of {} is listed twice", section, key));
   }
 
   static int charge_sign(const std::string& canonical) {
@@ -148,6 +172,7 @@ class ParameterFileReader {
   }
 
   std::string file_;
+  std::set<std::string> seen_;
 };
 
 }  // namespace
