@@ -206,7 +206,7 @@ BENCHMARK(adiabatic_solve)->Unit(benchmark::kMicrosecond);
 ChemicalSystem pitzer_benchmark_system() {
   SystemOptions options;
   options.activity = ActivityModelKind::pitzer;
-  options.secondary_species = {"OH-", "HSO4-", "HCO3-", "CO2(aq)", "NH3(aq)", "CaSO4(aq)", "NaSO4-", "CaCO3(aq)"};
+  options.secondary_species = {"OH^-", "HSO4^-", "HCO3^-", "CO2(aq)", "NH3(aq)", "CaSO4(aq)", "NaSO4^-", "CaCO3(aq)"};
   return ChemicalSystem(database(), {"H2O", "NaOH", "HCl", "H2SO4", "CO2", "NH3", "Ca(OH)2"}, options);
 }
 

@@ -125,7 +125,7 @@ namespace protonflow::reference {
 
 double gypsum_solubility(double nacl_molality, thermo::ActivityModelKind model) {
   constexpr double gypsum_fed = 0.2;  // mol, several times what dissolves
-  const std::vector<std::string> components{"H2O", "NaCl", "CaSO4:2H2O"};
+  const std::vector<std::string> components{"H2O", "NaCl", "CaSO4.2H2O"};
   const std::vector<double> amounts{1.0 / thermo::constants::water_molar_mass, nacl_molality, gypsum_fed};
   thermo::SystemOptions options;
   options.activity = model;

@@ -3,6 +3,8 @@
 #include <boost/math/quadrature/exp_sinh.hpp>
 
 #include <cmath>
+#include <filesystem>
+#include <fstream>
 #include <string>
 #include <vector>
 
@@ -25,10 +27,10 @@ SoluteProperties mixture(bool equal_sizes) {
 }
 const std::vector<double> molality{0.01, 0.2, 0.05, 0.25, 0.03, 0.02};
 
-// The same mixture with names, for the Pitzer model (both ion notations are accepted).
+// The same mixture with names, for the Pitzer model.
 SoluteProperties named_mixture() {
   SoluteProperties p = mixture(false);
-  p.name = {"H+", "Na^+", "Ca+2", "Cl-", "SO4^2-", "CO2(aq)"};
+  p.name = {"H^+", "Na^+", "Ca^2+", "Cl^-", "SO4^2-", "CO2(aq)"};
   return p;
 }
 
@@ -149,10 +151,10 @@ TEST_CASE("Pitzer model names the species it has no parameters for") {
   SoluteProperties p;
   p.charge = {1, -1, 1, 0};
   p.ion_size_angstrom = {4, 3, 4, 0};
-  p.name = {"Na+", "Cl-", "Cs+", "N2(aq)"};
+  p.name = {"Na^+", "Cl^-", "Cs^+", "N2(aq)"};
   const PitzerModel model(p, bundled_pitzer_parameters());
-  CHECK(model.species_without_parameters() == std::vector<std::string>{"Cs+", "N2(aq)"});
-  // Cs+ keeps the Debye–Hückel term alone: with no Cs–Cl parameters ln γ(Cs+) = f^γ + Cφ terms of others.
+  CHECK(model.species_without_parameters() == std::vector<std::string>{"Cs^+", "N2(aq)"});
+  // Cs^+ keeps the Debye–Hückel term alone: with no Cs–Cl parameters ln γ(Cs^+) = f^γ + Cφ terms of others.
   ActivityEvaluation out(4);
   model.evaluate(298.15, 1e5, std::vector<double>{1e-3, 1e-3, 1e-9, 1e-9}, out);
   CHECK(out.ln_gamma[3] == Approx(0.0).margin(1e-12));
@@ -208,4 +210,34 @@ TEST_CASE("Debye-Hückel A and B at 25 °C") {
   // A rises with temperature: 0.4918 at 0 °C and 0.5998 at 100 °C (same table, from memory).
   CHECK(debye_huckel_parameters(273.15, 101325.0).a == Approx(0.4918).epsilon(3e-3));
   CHECK(debye_huckel_parameters(373.15, 101325.0).a == Approx(0.5998).epsilon(5e-3));
+}
+
+TEST_CASE("the Pitzer parameter file: bundled set read, bad entries refused with file, line and column") {
+  const PitzerParameters& bundled = bundled_pitzer_parameters();
+  CHECK(bundled.binary.size() >= 30);
+  CHECK(bundled.maximum_ionic_strength == 6.0);
+  const auto directory = std::filesystem::temp_directory_path() / "protonflow-pitzer-parameters";
+  std::filesystem::create_directories(directory);
+  const auto refused = [&](const std::string& name, const std::string& text, int line, int column, const std::string& what) {
+    const auto file = directory / (name + ".yaml");
+    std::ofstream(file) << text;
+    try {
+      load_pitzer_parameters(file);
+      FAIL("accepted " << name);
+    } catch (const DataError& e) {
+      INFO(e.what());
+      CHECK(e.line() == line);
+      CHECK(e.column() == column);
+      CHECK_THAT(e.what(), Catch::Contains(what));
+    }
+  };
+  refused("old-notation", "binary:\n  - species: [Na+, Cl^-]\n    beta0: {value: 0.0765, source: x}\n", 2, 15, "write 'Na^+'");
+  refused("no-source", "binary:\n  - species: [Na^+, Cl^-]\n    beta0: {value: 0.0765}\n", 3, 12, "'value' and 'source'");
+  refused("anion-first", "binary:\n  - species: [Cl^-, Na^+]\n    beta0: {value: 0.0765, source: x}\n", 2, 14, "a cation then an anion");
+  refused("unknown-key", "binary:\n  - species: [Na^+, Cl^-]\n    beta3: {value: 1, source: x}\n", 3, 5, "unknown key 'beta3'");
+  refused("twice", "theta:\n  - {species: [Na^+, K^+], theta: {value: 1, source: x}}\n  - {species: [K^+, Na^+], theta: {value: 1, source: x}}\n",
+          3, 5, "theta of K^+ Na^+ is listed twice");
+  refused("lambda-ion-first", "lambda:\n  - {species: [Na^+, CO2(aq)], lambda: {value: 1, source: x}}\n", 2, 15, "a neutral species first");
+  refused("psi-signs", "psi:\n  - {species: [Na^+, Cl^-, K^+], psi: {value: 1, source: x}}\n", 2, 15, "two different ions of one sign");
+  std::filesystem::remove_all(directory);
 }

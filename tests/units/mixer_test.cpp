@@ -460,9 +460,9 @@ TEST_CASE("mixer: with the Pitzer model, the product names the ions the paramete
   const host::Slate slate{{"H2O", "NaCl", "ZnCl2"}, {}};
   auto unit = create_mixer({{"activity_model", std::string("pitzer")}}, slate);
   const Mix m = run(unit, {solution(slate, 298.15, {{"NaCl", 1.0}}), solution(slate, 298.15, {{"ZnCl2", 0.2}})}, slate);
-  // thermo/data/pitzer/ion-interaction.yaml has no zinc: Zn+2 keeps the Debye–Hückel term alone.
+  // thermo/data/pitzer/ion-interaction.yaml has no zinc: Zn^2+ keeps the Debye–Hückel term alone.
   const bool named = std::any_of(m.solution.warnings.begin(), m.solution.warnings.end(), [](const std::string& w) {
-    return w.find("do not cover") != std::string::npos && w.find("Zn+2") != std::string::npos;
+    return w.find("do not cover") != std::string::npos && w.find("Zn^2+") != std::string::npos;
   });
   CHECK(named);
   check_mass_balance(m, slate);

@@ -10,6 +10,7 @@
 #include "protonflow/thermo/activity_pitzer.hpp"
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <cstdlib>
 #include <fmt/format.h>
@@ -77,25 +78,26 @@ Curve pitzer_j(double x) {
   return {x / d, (d - x * u1) / (d * d), (-x * u2 * d - 2.0 * u1 * (d - x * u1)) / (d * d * d)};
 }
 
-// Eθ_ij(I) = (z_i z_j / 4I) [J(x_ij) − ½J(x_ii) − ½J(x_jj)], x_ij = 6 z_i z_j A_φ √I (Pitzer 1975).
-Curve e_theta(int zi, int zj, double a_phi, double ionic_strength) {
+// J(x_ij) as a function of I, x_ij = 6 z_i z_j A_φ √I: d/dI = J'(x) x/(2I), d²/dI² = [J''x² − J'x]/(4I²).
+Curve pitzer_j_of_ionic_strength(int charge_product, double a_phi, double ionic_strength) {
   const double i = ionic_strength;
-  const double root = std::sqrt(i);
-  Curve s;  // the bracket, as a function of I
-  const auto add = [&](double weight, double zz) {
-    const double x = 6.0 * zz * a_phi * root;
-    const Curve j = pitzer_j(x);
-    s.value += weight * j.value;
-    s.first += weight * j.first * x / (2.0 * i);
-    s.second += weight * (j.second * x * x - j.first * x) / (4.0 * i * i);
-  };
-  add(1.0, zi * zj);
-  add(-0.5, zi * zi);
-  add(-0.5, zj * zj);
+  const double x = 6.0 * charge_product * a_phi * std::sqrt(i);
+  const Curve j = pitzer_j(x);
+  return {j.value, j.first * x / (2.0 * i), (j.second * x * x - j.first * x) / (4.0 * i * i)};
+}
+
+// Eθ_ij(I) = (z_i z_j / 4I) [J(x_ij) − ½J(x_ii) − ½J(x_jj)] (Pitzer 1975), given the three J(I).
+Curve e_theta(int zi, int zj, const Curve& j_ij, const Curve& j_ii, const Curve& j_jj, double ionic_strength) {
+  const double i = ionic_strength;
+  const Curve s{j_ij.value - 0.5 * (j_ii.value + j_jj.value), j_ij.first - 0.5 * (j_ii.first + j_jj.first),
+                j_ij.second - 0.5 * (j_ii.second + j_jj.second)};
   const double k = zi * zj / 4.0;
   return {k * s.value / i, k * (s.first / i - s.value / (i * i)),
           k * (s.second / i - 2.0 * s.first / (i * i) + 2.0 * s.value / (i * i * i))};
 }
+
+// Charge products z_i z_j up to this have their J(x) computed once per evaluation.
+constexpr int largest_memo_charge_product = 16;
 
 enum class PairKind { cation_anion, same_sign, neutral };
 
@@ -105,6 +107,7 @@ struct PairTerm {
   // the parameters as functions of T, copied so that the model outlives the parameter set it was built from
   PitzerCoefficient beta0_t{}, beta1_t{}, beta2_t{}, c_phi_t{};  // cation–anion pairs
   double alpha1 = 2.0, alpha2 = 0.0;
+  std::size_t alpha1_index = 0, alpha2_index = 0;  // into Impl::alphas
   PitzerCoefficient constant_t{};  // θ or λ (zero for a pair with Eθ alone)
   // the same at the cached temperature; c = Cφ/(2√|z_c z_a|)
   double beta0 = 0, beta1 = 0, beta2 = 0, c = 0, constant = 0;
@@ -130,6 +133,12 @@ struct PitzerModel::Impl {
   mutable double cached_temperature = -1.0;
   mutable double a_phi = 0.0;
   mutable std::vector<Curve> pair_curves;
+  // the α of every binary pair, each g(α√I) computed once per evaluation
+  std::vector<double> alphas;
+  mutable std::vector<Curve> alpha_curves;
+  // J(x) of each charge product, computed at most once per evaluation
+  mutable std::array<Curve, largest_memo_charge_product + 1> j_curves{};
+  mutable std::array<bool, largest_memo_charge_product + 1> j_known{};
   mutable std::vector<double> r;        // R_k = Σ_{pairs ∋ k} m_other P'
   mutable std::vector<double> d_q;      // ∂Q/∂m_k
   mutable std::vector<double> gradient;  // ln γ
@@ -153,6 +162,15 @@ struct PitzerModel::Impl {
     cached_temperature = temperature;
   }
 
+  Curve j_curve(int charge_product, double ionic_strength) const {
+    if (charge_product > largest_memo_charge_product) return pitzer_j_of_ionic_strength(charge_product, a_phi, ionic_strength);
+    if (!j_known[charge_product]) {
+      j_curves[charge_product] = pitzer_j_of_ionic_strength(charge_product, a_phi, ionic_strength);
+      j_known[charge_product] = true;
+    }
+    return j_curves[charge_product];
+  }
+
   // P(I) of one pair with its derivatives in I.
   Curve pair_curve(const PairTerm& p, double ionic_strength) const {
     switch (p.kind) {
@@ -160,19 +178,21 @@ struct PitzerModel::Impl {
         // P = 2B, B = β⁰ + β¹ g(α₁√I) + β² g(α₂√I)
         Curve b{p.beta0, 0.0, 0.0};
         if (p.beta1 != 0.0) {
-          const Curve g = pitzer_g_of_ionic_strength(p.alpha1, ionic_strength);
+          const Curve& g = alpha_curves[p.alpha1_index];
           b.value += p.beta1 * g.value, b.first += p.beta1 * g.first, b.second += p.beta1 * g.second;
         }
         if (p.beta2 != 0.0) {
-          const Curve g = pitzer_g_of_ionic_strength(p.alpha2, ionic_strength);
+          const Curve& g = alpha_curves[p.alpha2_index];
           b.value += p.beta2 * g.value, b.first += p.beta2 * g.first, b.second += p.beta2 * g.second;
         }
         return {2.0 * b.value, 2.0 * b.first, 2.0 * b.second};
       }
       case PairKind::same_sign: {
         Curve e{};
-        if (solutes.charge[p.i] != solutes.charge[p.j])
-          e = e_theta(solutes.charge[p.i], solutes.charge[p.j], a_phi, ionic_strength);
+        const int zi = solutes.charge[p.i], zj = solutes.charge[p.j];
+        if (zi != zj)
+          e = e_theta(zi, zj, j_curve(zi * zj, ionic_strength), j_curve(zi * zi, ionic_strength),
+                      j_curve(zj * zj, ionic_strength), ionic_strength);
         return {2.0 * (p.constant + e.value), 2.0 * e.first, 2.0 * e.second};
       }
       case PairKind::neutral: return {(p.i == p.j ? 1.0 : 2.0) * p.constant, 0.0, 0.0};
@@ -205,6 +225,8 @@ struct PitzerModel::Impl {
     std::fill(r.begin(), r.end(), 0.0);
     std::fill(d_q.begin(), d_q.end(), 0.0);
     double g = f, s1 = 0.0, s2 = 0.0, q = 0.0;
+    for (std::size_t a = 0; a < alphas.size(); ++a) alpha_curves[a] = pitzer_g_of_ionic_strength(alphas[a], i);
+    j_known.fill(false);
     for (std::size_t p = 0; p < pairs.size(); ++p) {
       const PairTerm& term = pairs[p];
       const Curve c = pair_curve(term, i);
@@ -285,7 +307,7 @@ PitzerModel::PitzerModel(SoluteProperties solutes, const PitzerParameters& param
     throw ThermoError(ErrorKind::bad_input, "the Pitzer model needs the name of every solute (SoluteProperties::name)");
   d.maximum_ionic_strength = parameters.maximum_ionic_strength;
   std::unordered_map<std::string, std::size_t> index;
-  for (std::size_t k = 0; k < n; ++k) index.emplace(canonical_species_name(solutes.name[k]), k);
+  for (std::size_t k = 0; k < n; ++k) index.emplace(solutes.name[k], k);
   const auto find = [&](const std::string& name) -> std::ptrdiff_t {
     const auto it = index.find(name);
     return it == index.end() ? -1 : static_cast<std::ptrdiff_t>(it->second);
@@ -297,6 +319,11 @@ PitzerModel::PitzerModel(SoluteProperties solutes, const PitzerParameters& param
     PairTerm term{static_cast<std::size_t>(c), static_cast<std::size_t>(a), PairKind::cation_anion};
     term.beta0_t = b.beta0, term.beta1_t = b.beta1, term.beta2_t = b.beta2, term.c_phi_t = b.c_phi;
     term.alpha1 = b.alpha1, term.alpha2 = b.alpha2;
+    for (const double alpha : {b.alpha1, b.alpha2}) {
+      if (std::find(d.alphas.begin(), d.alphas.end(), alpha) == d.alphas.end()) d.alphas.push_back(alpha);
+    }
+    term.alpha1_index = static_cast<std::size_t>(std::find(d.alphas.begin(), d.alphas.end(), b.alpha1) - d.alphas.begin());
+    term.alpha2_index = static_cast<std::size_t>(std::find(d.alphas.begin(), d.alphas.end(), b.alpha2) - d.alphas.begin());
     d.pairs.push_back(term);
     covered[static_cast<std::size_t>(c)] = covered[static_cast<std::size_t>(a)] = true;
   }
@@ -306,7 +333,8 @@ PitzerModel::PitzerModel(SoluteProperties solutes, const PitzerParameters& param
       const int zi = solutes.charge[i], zj = solutes.charge[j];
       if (zi == 0 || zj == 0 || (zi > 0) != (zj > 0)) continue;
       const PitzerCoefficient* theta = nullptr;
-      const std::string ni = canonical_species_name(solutes.name[i]), nj = canonical_species_name(solutes.name[j]);
+      const std::string& ni = solutes.name[i];
+      const std::string& nj = solutes.name[j];
       for (const PitzerPair& t : parameters.theta)
         if ((t.first == ni && t.second == nj) || (t.first == nj && t.second == ni)) theta = &t.value;
       if (!theta && zi == zj) continue;
@@ -331,6 +359,7 @@ PitzerModel::PitzerModel(SoluteProperties solutes, const PitzerParameters& param
   for (std::size_t k = 0; k < n; ++k)
     if (!covered[k]) d.without_parameters.push_back(solutes.name[k]);
   d.pair_curves.resize(d.pairs.size());
+  d.alpha_curves.resize(d.alphas.size());
   d.r.resize(n);
   d.d_q.resize(n);
   d.gradient.resize(n);

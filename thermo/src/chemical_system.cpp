@@ -88,12 +88,12 @@ ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string
                        [&](const auto& term) { return term.first == "H2O" || basis_position(term.first) >= 0; });
   };
   // The Pitzer parameters carry some ion pairs in their binary terms; those pairs stay out.
-  std::set<std::string> folded;
+  std::set<std::string, std::less<>> folded;
   if (options_.activity == ActivityModelKind::pitzer)
-    for (const std::string& name : bundled_pitzer_parameters().folded_ion_pairs) folded.insert(canonical_species_name(name));
+    for (const std::string& name : bundled_pitzer_parameters().folded_ion_pairs) folded.insert(name);
   if (options_.secondary_species.empty()) {
     for (const Species& s : database.species())
-      if (!s.is_basis && s.phase == Phase::aqueous && reachable(s) && !folded.count(canonical_species_name(s.name)))
+      if (!s.is_basis && s.phase == Phase::aqueous && reachable(s) && !folded.count(s.name))
         add_solute(s);
   } else {
     // OH^- belongs to every aqueous system: water's own ionization is never optional.

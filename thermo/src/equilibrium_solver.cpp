@@ -297,6 +297,7 @@ std::vector<std::string> describe_warnings(const Speciation& s) {
     text.push_back(fmt::format("ionic strength {:.3g} mol/kg is beyond the {} activity model's range (about {:g} mol/kg): "
                                "activities, and pH with them, are extrapolated; {}",
                                s.ionic_strength, s.activity_model_name, s.activity_model_limit,
+                               // 6 mol/kg: the range of the bundled Pitzer parameters (thermo/data/pitzer)
                                s.ionic_strength <= 6.0 && std::string_view(s.activity_model_name) != "pitzer"
                                    ? "the pitzer model serves to about 6 mol/kg"
                                    : "no ion-interaction model serves here; a concentrated acid or base needs a "

@@ -3,31 +3,19 @@
 
 #include <yaml-cpp/yaml.h>
 
-#include <cctype>
 #include <fmt/format.h>
 #include <set>
 
 #include "protonflow/thermo/constants.hpp"
 #include "protonflow/thermo/database.hpp"
 #include "protonflow/thermo/errors.hpp"
+#include "protonflow/thermo/formula.hpp"
 
 namespace protonflow::thermo {
 
 double PitzerCoefficient::at(double temperature) const noexcept {
   const double dt = temperature - constants::reference_temperature;
   return value + dt * (d_dT + 0.5 * dt * d2_dT2);
-}
-
-std::string canonical_species_name(std::string_view name) {
-  if (name.find('^') != std::string_view::npos || name.empty()) return std::string(name);
-  // Old notation: a trailing sign, then an optional charge number ("Ca+2", "SO4-2", "H+").
-  std::size_t end = name.size();
-  while (end > 0 && std::isdigit(static_cast<unsigned char>(name[end - 1]))) --end;
-  if (end == 0 || (name[end - 1] != '+' && name[end - 1] != '-')) return std::string(name);
-  const char sign = name[end - 1];
-  const std::string_view number = name.substr(end);
-  if (end == 1) return std::string(name);
-  return fmt::format("{}^{}{}", name.substr(0, end - 1), number == "1" ? "" : number, sign);
 }
 
 namespace {
@@ -51,7 +39,7 @@ class ParameterFileReader {
     if (root["maximum_ionic_strength"]) p.maximum_ionic_strength = sourced(root["maximum_ionic_strength"]);
     if (const auto pairs = root["folded_ion_pairs"]) {
       if (!pairs.IsSequence()) fail(pairs, "'folded_ion_pairs' is a list of species names");
-      for (const auto& name : pairs) p.folded_ion_pairs.push_back(name.as<std::string>());
+      for (const auto& name : pairs) p.folded_ion_pairs.push_back(species_name(name));
     }
     for (const auto& node : section(root, "binary")) p.binary.push_back(read_binary(node));
     for (const auto& node : section(root, "theta")) p.theta.push_back(read_pair(node, "theta"));
@@ -91,12 +79,21 @@ class ParameterFileReader {
     }
   }
 
+  // A species name in the project's notation; the older one ("Ca+2") is refused as the loader refuses it.
+  std::string species_name(const YAML::Node& node) const {
+    if (!node.IsScalar()) fail(node, "a species name is a single word, e.g. Ca^2+");
+    const auto name = node.as<std::string>();
+    if (const auto replacement = notation_replacement(name))
+      fail(node, fmt::format("'{}' is the older ion notation: write '{}'", name, *replacement));
+    return name;
+  }
+
   std::vector<std::string> species(const YAML::Node& node, std::size_t count) const {
     const YAML::Node list = node["species"];
     if (!list || !list.IsSequence() || list.size() != count)
       fail(node, fmt::format("an entry needs 'species', a list of {} names", count));
     std::vector<std::string> names;
-    for (const auto& name : list) names.push_back(canonical_species_name(name.as<std::string>()));
+    for (const auto& name : list) names.push_back(species_name(name));
     return names;
   }
 
@@ -122,21 +119,45 @@ class ParameterFileReader {
     b.alpha2 = node["alpha2"] ? sourced(node["alpha2"]) : 12.0;
     if (charge_sign(names[0]) <= 0 || charge_sign(names[1]) >= 0)
       fail(node["species"], fmt::format("a binary entry lists a cation then an anion, not {} and {}", names[0], names[1]));
+    once(node, "binary", names[0] + " " + names[1]);
     return b;
   }
 
+  // θ: two ions of one sign; λ: a neutral species first, then any species.
   PitzerPair read_pair(const YAML::Node& node, const std::string& key) {
     check_keys(node, {"species", key, key + "_dT", key + "_dT2", "note"});
     const auto names = species(node, 2);
     if (!node[key]) fail(node, fmt::format("the entry needs '{}'", key));
+    const int a = charge_sign(names[0]), b = charge_sign(names[1]);
+    if (key == "theta" && (a == 0 || a != b || names[0] == names[1]))
+      fail(node["species"], fmt::format("theta is for two different ions of the same sign, not {} and {}", names[0], names[1]));
+    if (key == "lambda" && a != 0)
+      fail(node["species"], fmt::format("lambda lists a neutral species first, not {}", names[0]));
+    once(node, key, names[0] < names[1] || key == "lambda" ? names[0] + " " + names[1] : names[1] + " " + names[0]);
     return {names[0], names[1], coefficient(node, key)};
   }
 
+  // ψ: two different ions of one sign, then one of the other; ζ: a neutral, a cation, an anion.
   PitzerTriple read_triple(const YAML::Node& node, const std::string& key) {
     check_keys(node, {"species", key, key + "_dT", key + "_dT2", "note"});
     const auto names = species(node, 3);
     if (!node[key]) fail(node, fmt::format("the entry needs '{}'", key));
+    const int a = charge_sign(names[0]), b = charge_sign(names[1]), c = charge_sign(names[2]);
+    if (key == "psi" && (a == 0 || a != b || c != -a || names[0] == names[1]))
+      fail(node["species"], fmt::format("psi lists two different ions of one sign, then one of the other, not {}, {}, {}",
+                                        names[0], names[1], names[2]));
+    if (key == "zeta" && (a != 0 || b <= 0 || c >= 0))
+      fail(node["species"],
+           fmt::format("zeta lists a neutral species, a cation and an anion, not {}, {}, {}", names[0], names[1], names[2]));
+    const bool ordered = names[0] < names[1] || key == "zeta";
+    once(node, key, (ordered ? names[0] + " " + names[1] : names[1] + " " + names[0]) + " " + names[2]);
     return {names[0], names[1], names[2], coefficient(node, key)};
+  }
+
+  // A parameter listed twice would be counted twice.
+  void once(const YAML::Node& node, const std::string& section, const std::string& key) {
+    if (!seen_.insert(section + ": " + key).second)
+      fail(node, fmt::format("{} of {} is listed twice", section, key));
   }
 
   static int charge_sign(const std::string& canonical) {
@@ -151,6 +172,7 @@ class ParameterFileReader {
   }
 
   std::string file_;
+  std::set<std::string> seen_;
 };
 
 }  // namespace

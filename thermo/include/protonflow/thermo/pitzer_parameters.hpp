@@ -20,7 +20,7 @@ struct PitzerCoefficient {
 
 // One cation–anion pair: β⁰, β¹, β², Cφ and the α of its charge type.
 struct PitzerBinary {
-  std::string cation, anion;  // canonical names (canonical_species_name)
+  std::string cation, anion;  // species names, e.g. "Na^+", "Cl^-"
   PitzerCoefficient beta0, beta1, beta2, c_phi;
   double alpha1 = 2.0, alpha2 = 0.0;  // kg^½ mol^-½
 };
@@ -55,9 +55,5 @@ std::filesystem::path default_pitzer_parameters_file();
 
 // The bundled parameters, read once per process (thread-safe).
 const PitzerParameters& bundled_pitzer_parameters();
-
-// One spelling for a species in either ion notation: "Ca+2" and "Ca^2+" both give "Ca^2+",
-// "SO4-2" and "SO4^2-" give "SO4^2-", "H+" gives "H^+"; other names are returned unchanged.
-std::string canonical_species_name(std::string_view name);
 
 }  // namespace protonflow::thermo
