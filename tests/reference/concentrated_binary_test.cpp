@@ -2,13 +2,14 @@
 // that are not rows of the validation table, and against the thermodynamic identities the model
 // claims: Gibbs–Helmholtz, Gibbs–Duhem, Kirchhoff, and closed mass and energy balances on boiling.
 // Sources beside each assertion; keys in docs/references.md.
-#include <catch2/catch.hpp>
+#include "protonflow/thermo/concentrated_binary.hpp"
 
-#include <cmath>
 #include <fmt/format.h>
+
+#include <catch2/catch.hpp>
+#include <cmath>
 #include <limits>
 
-#include "protonflow/thermo/concentrated_binary.hpp"
 #include "protonflow/thermo/constants.hpp"
 #include "protonflow/thermo/stream_enthalpy.hpp"
 #include "python_reference.hpp"
@@ -165,7 +166,7 @@ TEST_CASE("H2SO4: 98 % acid diluted with water at 25 °C boils at 70 % and 50 %,
     if (!o.boiling) continue;
     const double v = o.vapour_fraction;
     CHECK(v > 0.0);
-    CHECK(o.vapour_solute_mass_fraction == 0.0);  // H2SO4 vapour is not modelled
+    CHECK(o.vapour_solute_mass_fraction == 0.0);                                        // H2SO4 vapour is not modelled
     CHECK((1.0 - v) * o.liquid_solute_mass_fraction == Approx(target).epsilon(1e-12));  // solute balance
     CHECK(o.temperature == Approx(bubble_temperature(b, o.liquid_solute_mass_fraction, atmosphere)).margin(1e-6));
     const double h_out = (1.0 - v) * binary_specific_enthalpy(b, o.temperature, o.liquid_solute_mass_fraction) +
@@ -220,12 +221,21 @@ TEST_CASE("concentrated binaries: outside the range a typed error names the quan
   // 38 % HCl boils below 273.15 K at 0.02 atm: the bubble point lies below the range, and says so.
   CHECK_THROWS_AS(bubble_temperature(hcl, 0.38, 0.02 * atmosphere), BinaryRangeError);
   CHECK_THROWS_AS(vapour_specific_enthalpy(ConcentratedBinary::sodium_hydroxide, 350.0, 0.1), ThermoError);
+  // 10 % HCl given 3 MJ/kg more than at its bubble point: one equilibrium stage would boil it all.
+  try {
+    const double t = bubble_temperature(hcl, 0.10, atmosphere);
+    adiabatic_outlet(hcl, 0.10, binary_specific_enthalpy(hcl, t, 0.10) + 3e6, atmosphere);
+    FAIL("no error for a feed that boils away");
+  } catch (const BinaryRangeError& e) {
+    CHECK(e.quantity().find("boil the whole feed") != std::string::npos);
+  }
 }
 
 TEST_CASE("concentrated binaries: the ionic scope says where a pH may be given, and why not beyond") {
   const IonicModelScope dilute = ionic_model_scope(ConcentratedBinary::sulfuric_acid, 0.05);
   CHECK(dilute.meaningful);
-  CHECK(dilute.solute_molality == Approx(0.05 / (0.95 * describe(ConcentratedBinary::sulfuric_acid).solute_molar_mass)));
+  CHECK(dilute.solute_molality ==
+        Approx(0.05 / (0.95 * describe(ConcentratedBinary::sulfuric_acid).solute_molar_mass)));
   const IonicModelScope concentrated = ionic_model_scope(ConcentratedBinary::sulfuric_acid, 0.98);
   CHECK_FALSE(concentrated.meaningful);
   CHECK(concentrated.reason.find("no meaningful pH") != std::string::npos);
@@ -266,4 +276,19 @@ TEST_CASE("concentrated binaries: at high dilution the enthalpy meets the engine
     // Water's own ions shift the engine's water mass by a few µg; that is far below the tolerance.
     CHECK((binary - engine) / moles / 1e3 == Approx(c.l_phi).margin(c.tolerance));
   }
+}
+
+TEST_CASE("HCl: at the 6 mol/kg hand-over the binary holds Parker's heat of dilution that the dilute engine lacks") {
+  // The gap a mixer would see at the hand-over, binary minus engine enthalpy per mol HCl, is L_φ at
+  // 6 mol/kg: 6.268 kJ/mol (parker-1965, read). It is the term the Pitzer model's temperature
+  // derivatives supply (docs/concentrated-acids.md, "Where the ionic engine takes over").
+  using protonflow::reference::solve_recipe;
+  const double moles = 6.0;
+  const auto r = solve_recipe({{"HCl", moles}}, ActivityModelKind::davies);
+  const double engine = state_enthalpy(r.system, r.speciation);
+  const double solute_mass = moles * describe(ConcentratedBinary::hydrochloric_acid).solute_molar_mass;
+  const double total = r.speciation.water_mass + solute_mass;
+  const double binary =
+      total * binary_specific_enthalpy(ConcentratedBinary::hydrochloric_acid, 298.15, solute_mass / total);
+  CHECK((binary - engine) / moles / 1e3 == Approx(6.268).epsilon(0.03));  // Source: parker-1965
 }
