@@ -101,7 +101,8 @@ TEST_CASE("solutions at the ends of the temperature range converge") {
 // with a step of 1e-6 agree to about 1e-9 of a row's largest entry; 1e-6 leaves room.
 TEST_CASE("the analytic Jacobian matches finite differences of the residual") {
   constexpr double agreement = 1e-6;
-  for (const ActivityModelKind model : {ActivityModelKind::ideal, ActivityModelKind::davies, ActivityModelKind::b_dot}) {
+  for (const ActivityModelKind model : {ActivityModelKind::ideal, ActivityModelKind::davies, ActivityModelKind::b_dot,
+                                         ActivityModelKind::pitzer}) {
     INFO("activity model " << static_cast<int>(model));
     SystemOptions options;
     options.activity = model;
