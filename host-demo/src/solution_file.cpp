@@ -20,7 +20,7 @@ constexpr std::array<std::string_view, 1> top_level_keys{"solution"};
 constexpr std::array<std::string_view, 12> solution_keys{
     "name",       "temperature", "pressure",  "activity_model", "amounts_as", "water_mass",
     "components", "may_precipitate", "open_to", "gas_phase",   "enthalpy", "precipitates"};
-constexpr std::array<std::string_view, 3> activity_model_names{"davies", "b-dot", "ideal"};
+constexpr std::array<std::string_view, 4> activity_model_names{"davies", "b-dot", "ideal", "pitzer"};
 constexpr std::array<std::string_view, 3> basis_names{"molality", "moles", "mass_fraction"};
 
 SourcePosition position_of(const std::string& file, const YAML::Mark& mark) {
@@ -217,6 +217,7 @@ std::string_view to_string(thermo::ActivityModelKind kind) noexcept {
     case thermo::ActivityModelKind::davies: return "davies";
     case thermo::ActivityModelKind::b_dot: return "b-dot";
     case thermo::ActivityModelKind::ideal: return "ideal";
+    case thermo::ActivityModelKind::pitzer: return "pitzer";
   }
   return "?";
 }
@@ -290,7 +291,8 @@ SolutionInput parse_solution(const std::string& text, const std::string& file, c
   if (const Entry* const model = find_entry(entries, "activity_model")) {
     input.activity_model = read_choice(
         file, *model, activity_model_names,
-        std::array{thermo::ActivityModelKind::davies, thermo::ActivityModelKind::b_dot, thermo::ActivityModelKind::ideal});
+        std::array{thermo::ActivityModelKind::davies, thermo::ActivityModelKind::b_dot, thermo::ActivityModelKind::ideal,
+                   thermo::ActivityModelKind::pitzer});
   }
 
   const Entry& basis = require_entry(entries, "amounts_as", input.solution_at,

@@ -254,8 +254,25 @@ TEST_CASE("a solution beyond the activity model's range is answered with a warni
   const YAML::Node report = YAML::Load(run.out);
   REQUIRE(report["warnings"].size() == 1);
   CHECK_THAT(report["warnings"][0].as<std::string>(), Catch::Contains("extrapolated"));
+  CHECK_THAT(report["warnings"][0].as<std::string>(), Catch::Contains("the pitzer model serves"));
   const ProgramRun table = speciate(file, {"--table"});
   CHECK_THAT(table.out, Catch::Contains("WARNING"));
+  require_balances_close(report);
+}
+
+TEST_CASE("a brine of I = 4.6 mol/kg is within the Pitzer model's range", "[speciate][pitzer]") {
+  const YAML::Node report = speciate_report(cases_directory / "brine-pitzer.yaml");
+  CHECK(report["activity_model"].as<std::string>() == "pitzer");
+  REQUIRE(report["warnings"]);
+  CHECK(report["warnings"].size() == 0);
+  CHECK(number(report["ionic_strength_mol_per_kg"]) == Approx(4.6).epsilon(0.01));
+  require_balances_close(report);
+}
+
+TEST_CASE("the Pitzer model names the ions it has no parameters for", "[speciate][pitzer]") {
+  const YAML::Node report = speciate_report(cases_directory / "zinc-brine-pitzer.yaml");
+  REQUIRE(report["warnings"].size() == 1);
+  CHECK_THAT(report["warnings"][0].as<std::string>(), Catch::Contains("do not cover") && Catch::Contains("Zn^2+"));
   require_balances_close(report);
 }
 
@@ -345,6 +362,25 @@ TEST_CASE("given an enthalpy, speciate finds the temperature", "[speciate][energ
   }
   const YAML::Node found = speciate_report(file);
   CHECK(number(found["temperature_K"]) == Approx(298.15).epsilon(0.0).margin(1e-6));  // the energy round trip
+  CHECK(number(found["pH"]) == Approx(number(at_25["pH"])).epsilon(0.0).margin(1e-8));
+}
+
+TEST_CASE("with the Pitzer model, an enthalpy given finds the temperature its heats of dilution imply", "[speciate][pitzer]") {
+  // The brine's enthalpy at 25 °C includes its relative enthalpy L (docs/energy.md); given back as the
+  // target, speciate must find 25 °C again, so both directions carry the same heats of dilution.
+  const YAML::Node at_25 = speciate_report(cases_directory / "brine-pitzer.yaml");
+  const double enthalpy = number(at_25["enthalpy_J"]);
+  const fs::path directory = fs::temp_directory_path() / "protonflow-e2e-pitzer-enthalpy";
+  fs::create_directories(directory);
+  const fs::path file = directory / "brine.yaml";
+  {
+    std::ofstream out(file);
+    out << "solution:\n  enthalpy: " << fmt::format("{:.17g}", enthalpy) << " J\n  activity_model: pitzer\n"
+        << "  amounts_as: molality\n  components:\n    NaCl: 3.0\n    CaCl2: 0.5\n    HCl: 0.1\n";
+  }
+  const YAML::Node found = speciate_report(file);
+  fs::remove_all(directory);
+  CHECK(number(found["temperature_K"]) == Approx(298.15).epsilon(0.0).margin(1e-6));
   CHECK(number(found["pH"]) == Approx(number(at_25["pH"])).epsilon(0.0).margin(1e-8));
 }
 
