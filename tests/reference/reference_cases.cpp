@@ -350,6 +350,8 @@ std::vector<ReferenceCase> build_cases() {
            {"log *Ks Cr(OH)3(am)", rai, 9.35, log_ks("Cr(OH)3(am)")},
            {"log *beta3 Cr(OH)3(aq)", rai, -16.19, log_beta("Cr(OH)3(aq)")},
            {"log *beta1 MnOH^+", nordstrom, -10.59, log_beta("MnOH^+")},
+           {"log beta4 Cu(NH3)4^2+ (2 M NH4NO3, 30 °C)", "Bjerrum 1941, Metal Ammine Formation (from memory)", 13.32,
+            [] { return formation_log_k("Cu(NH3)4^2+") - 4 * formation_log_k("NH3(aq)"); }},
        }) {
     cases.push_back({metals, quantity, source, published, 0.005, model});
   }
