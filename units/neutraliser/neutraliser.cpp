@@ -1,15 +1,15 @@
 #include "neutraliser.hpp"
 
 #include <protonflow/thermo/errors.hpp>
+#include <protonflow/units/message_text.hpp>
+#include <protonflow/units/thermo_failure.hpp>
 
 #include <algorithm>
 #include <cmath>
 #include <limits>
 #include <string>
 
-#include "message_text.hpp"
 #include "release_warnings.hpp"
-#include "thermo_failure.hpp"
 
 namespace protonflow::units {
 

@@ -12,17 +12,17 @@
 #include <protonflow/unit_module.hpp>
 
 #include <protonflow/thermo/chemical_system.hpp>
+#include <protonflow/units/equilibrium_stream.hpp>
+#include <protonflow/units/phase_placement.hpp>
+#include <protonflow/units/product_warnings.hpp>
+#include <protonflow/units/stream_chemistry.hpp>
 
 #include <array>
 #include <memory>
 #include <span>
 #include <vector>
 
-#include "equilibrium_stream.hpp"
 #include "liquor_analysis.hpp"
-#include "phase_placement.hpp"
-#include "product_warnings.hpp"
-#include "stream_chemistry.hpp"
 #include "titration.hpp"
 
 namespace protonflow::units {

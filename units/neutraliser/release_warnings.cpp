@@ -1,10 +1,10 @@
 #include "release_warnings.hpp"
 
+#include <protonflow/units/message_text.hpp>
+
 #include <array>
 #include <cstddef>
 #include <string>
-
-#include "message_text.hpp"
 
 namespace protonflow::units {
 

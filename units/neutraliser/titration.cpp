@@ -1,6 +1,7 @@
 #include "titration.hpp"
 
 #include <protonflow/unit_module.hpp>
+#include <protonflow/units/message_text.hpp>
 
 #include <boost/math/tools/roots.hpp>
 
@@ -8,8 +9,6 @@
 #include <cmath>
 #include <cstdint>
 #include <limits>
-
-#include "message_text.hpp"
 
 namespace protonflow::units {
 
