@@ -81,10 +81,10 @@ void Neutraliser::settle_product(double ratio, double feed_enthalpy, double reag
 
 double Neutraliser::dose_to_target(double feed_enthalpy, double reagent_enthalpy, double pressure) {
   double temperature = adiabatic_ ? feed_.state().temperature : outlet_temperature_;
+  double ratio = 0.0;
   for (int round = 0; round < max_temperature_rounds; ++round) {
-    double ratio = 0.0;
     try {
-      ratio = titration_.find_ratio(target_ph_, temperature, pressure, max_ratio_, type);
+      ratio = titration_.find_ratio(target_ph_, temperature, pressure, max_ratio_, type, ratio);
     } catch (const thermo::ThermoError& error) {
       throw_unit_error(error, type, "dosing to target_ph " + number_text(target_ph_, 4) + " at " + celsius_text(temperature),
                        PFU_INVALID_PARAMETER);

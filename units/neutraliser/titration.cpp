@@ -20,6 +20,9 @@ namespace {
 constexpr double ph_match = 1e-9;
 constexpr double relative_bracket = 1e-13;
 constexpr std::uintmax_t max_search_steps = 100;
+// The bracket tried around a hint, relative: a few kelvin of adiabatic heating move the dose of a
+// steep curve by far less.
+constexpr double hint_width = 1e-4;
 
 }  // namespace
 
@@ -64,7 +67,14 @@ double Titration::reagent_ph(double temperature, double pressure) {
 }
 
 double Titration::find_ratio(double target, double temperature, double pressure, double ratio_max,
-                             const std::string& unit_type) {
+                             const std::string& unit_type, double hint) {
+  if (hint > 0.0) {
+    const double low = hint * (1.0 - hint_width);
+    const double high = std::min(hint * (1.0 + hint_width), ratio_max);
+    const double low_miss = ph_at(low, temperature, pressure) - target;
+    const double high_miss = ph_at(high, temperature, pressure) - target;
+    if ((low_miss < 0.0) != (high_miss < 0.0)) return search(target, temperature, pressure, low, high, low_miss, high_miss, unit_type);
+  }
   const std::string prefix = "unit '" + unit_type + "': target_ph " + number_text(target, 4) + ": ";
   const double start = ph_at(0.0, temperature, pressure);
   if (std::abs(start - target) <= ph_match) return 0.0;
@@ -95,8 +105,19 @@ double Titration::find_ratio(double target, double temperature, double pressure,
   }
   if (std::abs(end - target) <= ph_match) return ratio_max;
 
-  double best_ratio = 0.0;
-  double best_miss = start - target;
+  return search(target, temperature, pressure, 0.0, ratio_max, start - target, end - target, unit_type);
+}
+
+// TOMS 748 on g(x) = pH(x) − target over [low, high], where g changes sign.
+double Titration::search(double target, double temperature, double pressure, double low, double high, double low_miss,
+                         double high_miss, const std::string& unit_type) {
+  const std::string prefix = "unit '" + unit_type + "': target_ph " + number_text(target, 4) + ": ";
+  double best_ratio = low;
+  double best_miss = low_miss;
+  if (std::abs(high_miss) < std::abs(low_miss)) {
+    best_ratio = high;
+    best_miss = high_miss;
+  }
   const auto miss = [&](double ratio) {
     const double g = ph_at(ratio, temperature, pressure) - target;
     if (std::abs(g) < std::abs(best_miss)) {
@@ -107,7 +128,7 @@ double Titration::find_ratio(double target, double temperature, double pressure,
   };
   const auto narrow_enough = [](double a, double b) { return b - a <= relative_bracket * std::max(std::abs(a), std::abs(b)); };
   std::uintmax_t steps = max_search_steps;
-  boost::math::tools::toms748_solve(miss, 0.0, ratio_max, start - target, end - target, narrow_enough, steps);
+  boost::math::tools::toms748_solve(miss, low, high, low_miss, high_miss, narrow_enough, steps);
   // A step function (a pure strong acid meeting a pure strong base at a pKw/2 target is not one, but
   // a curve can be steeper than the ratio's resolution) may leave the pH off the target: say so.
   if (!(std::abs(best_miss) <= 1e-6)) {

@@ -47,13 +47,19 @@ class Titration {
   // protonflow::unit::UnitError (PFU_INVALID_PARAMETER) when the target lies outside
   // [pH(0), pH(ratio_max)], saying why: the feed is already past it, the reagent cannot reach it
   // (naming the reagent's own pH, the highest or lowest it can give), or ratio_max is too small.
-  double find_ratio(double target, double temperature, double pressure, double ratio_max, const std::string& unit_type);
+  // A hint (a ratio found at a nearby temperature) is tried first: where pH(hint ± 0.01 %) brackets
+  // the target, the search runs there and skips the ends of [0, ratio_max].
+  double find_ratio(double target, double temperature, double pressure, double ratio_max, const std::string& unit_type,
+                    double hint = 0.0);
 
   long solves() const noexcept { return solves_; }
   void reset_count() noexcept { solves_ = 0; }
   const thermo::Speciation& state() const noexcept { return state_; }
 
  private:
+  double search(double target, double temperature, double pressure, double low, double high, double low_miss,
+                double high_miss, const std::string& unit_type);
+
   const thermo::ChemicalSystem* system_;
   thermo::EquilibriumSolver solver_;
   thermo::EquilibriumSolver reagent_solver_;
