@@ -98,6 +98,7 @@ class Neutraliser {
   // The dose (kg/kg) and the product state for the mode; leaves the product in product_.
   double dose_to_target(double feed_enthalpy, double reagent_enthalpy, double pressure);
   void settle_product(double ratio, double feed_enthalpy, double reagent_enthalpy, double pressure);
+  bool settle_adiabatic_near(double target, double pressure);
   void warn_about_control(double ratio, double gain, double pressure, unit::Warnings& warnings);
 
   bool to_target_;
@@ -117,6 +118,8 @@ class Neutraliser {
   Titration titration_;
   InletPhases inlet_phases_;
   std::vector<double> flows_;  // scratch: the product's totals as one aqueous row
+  double guess_temperature_ = 0.0;  // K: where the next adiabatic search starts
+  double heat_capacity_ = 0.0;      // W/K: of the product, from the first Newton step
 };
 
 }  // namespace protonflow::units
