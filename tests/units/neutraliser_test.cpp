@@ -305,6 +305,16 @@ TEST_CASE("neutraliser: an unreachable target names the highest pH the reagent c
     INFO(message);
     CHECK(message.find("unreachable: the highest pH this reagent can give is 11.") != std::string::npos);
   }
+  SECTION("Mg(OH)2 slurry stops near pH 10 (brucite's saturation)") {
+    const host::Slate slate{{"H2O", "HCl", "Mg(OH)2"}, {"brucite"}};
+    const host::StreamState feed = solution(slate, 1.0, {{"HCl", 0.01}});
+    const host::StreamState reagent = solution(slate, 0.9, {{"Mg(OH)2", 0.1 / component_molar_mass("Mg(OH)2")}});
+    const std::string message =
+        failure(at_25c({{"mode", std::string("target_ph")}, {"target_ph", 11.0}, {"max_reagent_ratio", 10.0}}), slate, feed, reagent);
+    INFO(message);
+    // A saturated brucite solution is near pH 10.4 (Ksp about 10^-11.2, CRC Handbook, from memory).
+    CHECK(message.find("unreachable: the highest pH this reagent can give is 10.") != std::string::npos);
+  }
   SECTION("a base cannot lower the pH") {
     const host::StreamState feed = solution(hcl_naoh, 1.0, {{"HCl", 0.01}});
     const host::StreamState reagent = solution(hcl_naoh, 1.0, {{"NaOH", 0.1}});
