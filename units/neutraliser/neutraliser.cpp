@@ -41,6 +41,8 @@ Neutraliser::Neutraliser(const unit::Parameters& parameters, const unit::Slate& 
       sludge_dry_solids_(parameters.number("sludge_dry_solids")),
       reagent_resolution_(parameters.number("reagent_resolution")),
       ph_tolerance_(parameters.number("ph_tolerance")),
+      curve_points_(static_cast<std::size_t>(parameters.number("curve_points"))),
+      curve_ratio_max_(parameters.number("curve_ratio_max")),
       system_(make_stream_system(type, slate, parameters.text("activity_model"))),
       placement_(type, *system_, slate),
       analysis_(*system_),
@@ -141,21 +143,31 @@ double Neutraliser::dose_to_target(double feed_enthalpy, double reagent_enthalpy
 
 void Neutraliser::solve(std::span<const unit::InletState> inlets, std::span<unit::OutletState> outlets,
                         unit::Results& results, unit::Warnings& warnings) {
-  const unit::InletState& feed = inlets[0];
-  const unit::InletState& reagent = inlets[1];
-  unit::OutletState& product = outlets[0];
-  unit::OutletState& off_gas = outlets[1];
+  constexpr std::size_t feed_port = unit::port_index(ports, "feed");
+  constexpr std::size_t reagents_port = unit::port_index(ports, "reagents");
+  constexpr std::size_t product_port = unit::port_index(ports, "product");
+  constexpr std::size_t off_gas_port = unit::port_index(ports, "off_gas");
+  const unit::InletState& feed = unit::on_port(inlets, feed_port)[0];
+  const std::span<const unit::InletState> reagents = unit::on_port(inlets, reagents_port);
+  unit::OutletState& product = unit::on_port(outlets, product_port)[0];
+  unit::OutletState& off_gas = unit::on_port(outlets, off_gas_port)[0];
 
   feed_.clear();
   feed_.add(feed);
   reagent_.clear();
-  reagent_.add(reagent);
+  double pressure = feed.pressure;
+  while (reagent_streams_.size() < reagents.size()) reagent_streams_.emplace_back(type, *system_);
+  for (std::size_t k = 0; k < reagents.size(); ++k) {
+    reagent_.add(reagents[k]);
+    reagent_streams_[k].clear();
+    reagent_streams_[k].add(reagents[k]);
+    if (!reagent_streams_[k].empty()) pressure = std::min(pressure, reagents[k].pressure);
+  }
   if (feed_.empty()) throw unit::UnitError(PFU_BAD_INLET, "unit 'neutraliser': the feed has no flow: there is nothing to treat");
   if (to_target_ && reagent_.empty()) {
     throw unit::UnitError(PFU_BAD_INLET,
-                          "unit 'neutraliser': the reagent has no flow; mode target_ph needs its composition to find the dose");
+                          "unit 'neutraliser': no reagent has flow; mode target_ph needs their composition to find the dose");
   }
-  const double pressure = reagent_.empty() ? feed.pressure : std::min(feed.pressure, reagent.pressure);
   titration_.set_streams(feed_.totals(), reagent_.totals());
   titration_.reset_count();
   guess_temperature_ = feed.temperature;
@@ -163,10 +175,13 @@ void Neutraliser::solve(std::span<const unit::InletState> inlets, std::span<unit
   feed_.equilibrate(feed.temperature, feed.pressure, "equilibrating the feed at " + number_text(feed.temperature) + " K",
                     PFU_BAD_INLET);
   double reagent_enthalpy = 0.0;
-  if (!reagent_.empty()) {
-    reagent_.equilibrate(reagent.temperature, reagent.pressure,
-                         "equilibrating the reagent at " + number_text(reagent.temperature) + " K", PFU_BAD_INLET);
-    reagent_enthalpy = reagent_.enthalpy();
+  for (std::size_t k = 0; k < reagents.size(); ++k) {
+    if (reagent_streams_[k].empty()) continue;
+    reagent_streams_[k].equilibrate(reagents[k].temperature, reagents[k].pressure,
+                                    "equilibrating reagent " + std::to_string(k + 1) + " at " +
+                                        number_text(reagents[k].temperature) + " K",
+                                    PFU_BAD_INLET);
+    reagent_enthalpy += reagent_streams_[k].enthalpy();
   }
   const double feed_enthalpy = feed_.enthalpy();
 
@@ -212,10 +227,11 @@ void Neutraliser::solve(std::span<const unit::InletState> inlets, std::span<unit
   // Warnings: the shared ones about the product and the models, then the neutraliser's own.
   inlet_phases_.gas_amount = 0.0;
   std::ranges::fill(inlet_phases_.solid_amount, 0.0);
-  for (const EquilibriumStream* inlet : {&feed_, &reagent_}) {
-    if (inlet->empty()) continue;
-    const double share = inlet == &reagent_ ? scale : 1.0;
-    const thermo::Speciation& in = inlet->state();
+  for (std::size_t k = 0; k <= reagents.size(); ++k) {
+    const EquilibriumStream& inlet = k == 0 ? feed_ : reagent_streams_[k - 1];
+    if (inlet.empty()) continue;
+    const double share = k == 0 ? 1.0 : scale;
+    const thermo::Speciation& in = inlet.state();
     if (in.gas_phase_present) inlet_phases_.gas_amount += share * in.gas_phase_amount;
     for (std::size_t s = 0; s < in.solid_amount.size(); ++s) inlet_phases_.solid_amount[s] += share * in.solid_amount[s];
   }
@@ -223,9 +239,15 @@ void Neutraliser::solve(std::span<const unit::InletState> inlets, std::span<unit
                      inlet_phases_, warnings);
   warn_about_release(type, *system_, out, warnings);
   warn_about_model(type, "feed", feed_.state(), warnings);
-  if (!reagent_.empty()) warn_about_model(type, "reagent", reagent_.state(), warnings);
+  for (std::size_t k = 0; k < reagents.size(); ++k) {
+    if (!reagent_streams_[k].empty()) {
+      warn_about_model(type, "reagent " + std::to_string(k + 1), reagent_streams_[k].state(), warnings);
+    }
+  }
   warn_about_model(type, "product", out, warnings);
   if (std::isfinite(gain)) warn_about_control(ratio, gain, pressure, warnings);
+
+  fill_curve(ratio, pressure, results.series("titration"));
 
   const double dry_solids = analysis_.solids_mass(out);
   results.set("outlet_ph", out.ph);
@@ -244,6 +266,23 @@ void Neutraliser::solve(std::span<const unit::InletState> inlets, std::span<unit
       "dissolved_fe", "dissolved_al", "dissolved_zn", "dissolved_cu", "dissolved_ni", "dissolved_ca", "dissolved_mg", "dissolved_f"};
   for (std::size_t e = 0; e < reported_elements.size(); ++e) {
     results.set(dissolved[e], analysis_.dissolved_mg_per_litre(e, out).value_or(nan()));
+  }
+}
+
+// The titration curve at the outlet temperature, from no reagent to curve_ratio_max (or twice the
+// dose), each point warm-started from the one before. A host that asked for no points gets none.
+void Neutraliser::fill_curve(double ratio, double pressure, unit::Series& curve) {
+  const std::size_t points = std::min(curve.capacity(), curve_points_);
+  if (points == 0) return;
+  const double end = curve_ratio_max_ > 0.0 ? curve_ratio_max_ : ratio > 0.0 ? 2.0 * ratio : max_ratio_;
+  const double temperature = product_.state().temperature;
+  for (std::size_t i = 0; i < points; ++i) {
+    const double x = end * static_cast<double>(i) / static_cast<double>(points - 1);
+    try {
+      curve.add(x, titration_.ph_at(x, temperature, pressure));
+    } catch (const thermo::ThermoError& error) {
+      throw_unit_error(error, type, "the titration curve at reagent ratio " + number_text(x) + " kg/kg", PFU_NOT_CONVERGED);
+    }
   }
 }
 

@@ -36,9 +36,10 @@ class Neutraliser {
       "titration gain";
   static constexpr std::array ports{
       unit::inlet("feed", all_phases, "the waste to treat, acid or alkaline, solids allowed"),
-      unit::inlet("reagent", all_phases,
-                  "the reagent as delivered (NaOH or soda ash solution, lime or Mg(OH)2 slurry, ammonia, H2SO4, HCl); "
-                  "with mode target_ph only its composition counts"),
+      unit::inlet_list("reagents", all_phases, 1, PFU_UNBOUNDED_STREAMS,
+                       "one or more reagents as delivered (NaOH or soda ash solution, lime or Mg(OH)2 slurry, ammonia, "
+                       "H2SO4, HCl), dosed together in the proportions of their flows; with mode target_ph only those "
+                       "proportions and compositions count"),
       unit::outlet("product", PFU_PHASE_AQUEOUS | PFU_PHASE_SOLID, "the treated slurry: liquor and precipitated solids"),
       unit::outlet("off_gas", PFU_PHASE_GAS, "gases released (CO2, H2S, Cl2, NH3, water vapour)")};
   static constexpr std::array<const char*, 2> modes{"fixed_reagent", "target_ph"};
@@ -66,6 +67,10 @@ class Neutraliser {
                    "the smallest step of the reagent flow a valve or pump makes, as a fraction of the flow"),
       unit::number("ph_tolerance", "1", 0.5, 1e-3, 7.0,
                    "how far the outlet pH may wander from the setpoint; sets the staging warning"),
+      unit::number("curve_points", "1", 101.0, 2.0, 10001.0, "points of the titration curve, evenly spaced in the ratio"),
+      unit::number("curve_ratio_max", "1", 0.0, 0.0, 1e6,
+                   "kg of reagent per kg of feed at the curve's end; 0: twice the operating ratio (max_reagent_ratio "
+                   "where that is 0)"),
       activity_model_parameter};
   static constexpr std::array results{
       unit::result("outlet_ph", "1", "pH of the treated liquor, -log10 a(H+)"),
@@ -88,6 +93,11 @@ class Neutraliser {
       unit::result("dissolved_ca", "mg/L", "calcium still dissolved; NaN where the slate has none"),
       unit::result("dissolved_mg", "mg/L", "magnesium still dissolved; NaN where the slate has none"),
       unit::result("dissolved_f", "mg/L", "fluoride still dissolved; NaN where the slate has none")};
+  static constexpr std::array series{
+      unit::series("titration", "reagent_ratio", "1", "pH", "1", 10001,
+                   "pH of feed and reagent at equilibrium at the outlet temperature, against kg of reagent per kg of feed")};
+
+  std::size_t series_length(std::size_t) const { return curve_points_; }
 
   Neutraliser(const unit::Parameters& parameters, const unit::Slate& slate);
 
@@ -100,6 +110,7 @@ class Neutraliser {
   void settle_product(double ratio, double feed_enthalpy, double reagent_enthalpy, double pressure);
   bool settle_adiabatic_near(double target, double pressure);
   void warn_about_control(double ratio, double gain, double pressure, unit::Warnings& warnings);
+  void fill_curve(double ratio, double pressure, unit::Series& curve);
 
   bool to_target_;
   double target_ph_;
@@ -109,11 +120,14 @@ class Neutraliser {
   double sludge_dry_solids_;
   double reagent_resolution_;
   double ph_tolerance_;
+  std::size_t curve_points_;
+  double curve_ratio_max_;
   std::unique_ptr<thermo::ChemicalSystem> system_;  // the solvers point at it: it must not move
   PhasePlacement placement_;
   LiquorAnalysis analysis_;
   EquilibriumStream feed_;
-  EquilibriumStream reagent_;
+  EquilibriumStream reagent_;                  // every reagent together: the titration's
+  std::vector<EquilibriumStream> reagent_streams_;  // one per reagent stream, for its enthalpy
   EquilibriumStream product_;
   Titration titration_;
   InletPhases inlet_phases_;
