@@ -467,3 +467,55 @@ TEST_CASE("neutraliser: zinc and aluminium re-dissolve at high pH; fluoride prec
     check_energy_and_charge(d);
   }
 }
+
+TEST_CASE("neutraliser: the titration curve of HCl by NaOH as a series", "[neutraliser]") {
+  // 0.01 mol/s HCl in 1 kg/s of water; 0.1 mol/kg NaOH; the curve from no reagent to twice the
+  // equivalence ratio in 201 points, so that point 100 is the equivalence point.
+  const host::StreamState feed = solution(hcl_naoh, 1.0, {{"HCl", 0.01}});
+  const host::StreamState reagent = solution(hcl_naoh, 1.0, {{"NaOH", 0.1}});
+  const double reagent_mass = 1.0 + 0.1 * component_molar_mass("NaOH");            // kg per 0.1 mol NaOH
+  const double feed_mass = 1.0 + 0.01 * component_molar_mass("HCl");
+  const double equivalence = 0.1 * reagent_mass / feed_mass;                        // kg/kg for 0.01 mol NaOH
+  const Dose d = run(at_25c({{"curve_points", 201.0}, {"curve_ratio_max", 2.0 * equivalence}}), hcl_naoh, feed, reagent);
+  REQUIRE(d.solution.series.size() == 1);
+  const auto& curve = d.solution.series[0];
+  REQUIRE(curve.x.size() == 201);
+  CHECK(curve.x[0] == 0.0);
+  CHECK(curve.x[200] == Approx(2.0 * equivalence).epsilon(1e-15));
+  CHECK(curve.y[0] == Approx(d.solution.results[feed_ph]).margin(1e-9));  // the feed is at 25 °C too
+  for (std::size_t i = 1; i < curve.x.size(); ++i) CHECK(curve.y[i] > curve.y[i - 1]);
+  // Strong acid + strong base at exact equivalence: pH = pKw/2 (REFERENCE-VALUES.md worked example,
+  // pKw 13.9945 at 25 °C from IAPWS R11-07 through python3-iapws), ±0.01.
+  CHECK(curve.x[100] == Approx(equivalence).epsilon(1e-14));
+  CHECK(curve.y[100] == Approx(13.9945 / 2.0).margin(0.01));
+  // At 1.5 times equivalence 0.005 mol OH- is left in 1.15 kg of water with 0.015 Na+ and 0.01 Cl-:
+  // pH = pKw + log10(γ m(OH-)), γ by Davies at I = 0.015/1.15 (the model's own activity, so the
+  // check is of the chemistry and the curve's x), pKw 13.9945 (IAPWS R11-07), ±0.002.
+  const double i = 0.015 / 1.15;
+  const double a = thermo::debye_huckel_parameters(t25, atmosphere).a;
+  const double log_gamma = -a * (std::sqrt(i) / (1.0 + std::sqrt(i)) - 0.3 * i);
+  CHECK(curve.y[150] == Approx(13.9945 + log_gamma + std::log10(0.005 / 1.15)).margin(0.002));
+}
+
+TEST_CASE("neutraliser: two reagents are dosed together in the proportions of their flows", "[neutraliser]") {
+  const host::Slate slate{{"H2O", "HCl", "NaOH", "Ca(OH)2"}, {"portlandite"}};
+  const host::StreamState feed = solution(slate, 1.0, {{"HCl", 0.02}});
+  const host::StreamState caustic = solution(slate, 0.5, {{"NaOH", 0.05}});
+  const host::StreamState lime = solution(slate, 0.5, {{"Ca(OH)2", 0.025}});
+  host::Instance unit = neutraliser_module().create(
+      "neutraliser", at_25c({{"mode", std::string("target_ph")}, {"target_ph", 7.0}}), slate);
+  std::vector<host::StreamState> outlets(2);
+  const std::vector<std::uint32_t> inlet_counts{1, 2}, outlet_counts{1, 1};
+  const host::Solution s = unit.solve(std::vector<host::StreamState>{feed, caustic, lime}, inlet_counts, outlets, outlet_counts);
+  CHECK(s.results[outlet_ph] == Approx(7.0).margin(1e-8));
+  // The dose scales both reagents: NaOH and Ca(OH)2 stay 2:1 in moles, and their base equivalents
+  // (1 and 2 per mole) equal the acid to 0.1 % at pH 7 (stoichiometry).
+  const double naoh = column_total(outlets[0], slate, 2) + column_total(outlets[1], slate, 2);
+  const double lime_out = column_total(outlets[0], slate, 3) + column_total(outlets[1], slate, 3);
+  CHECK(naoh / lime_out == Approx(2.0).epsilon(1e-12));
+  CHECK(naoh + 2.0 * lime_out == Approx(0.02).epsilon(1e-3));
+  // Water: the feed's and the same share of both reagents'.
+  const double share = naoh / 0.05;
+  CHECK(column_total(outlets[0], slate, 0) + column_total(outlets[1], slate, 0) ==
+        Approx((1.0 + share * 1.0) * mol_per_kg_water).epsilon(1e-12));
+}
