@@ -56,7 +56,7 @@ void solve_repeatedly(benchmark::State& state, const host::Slate& slate, const s
 void target_ph_strong_acid(benchmark::State& state) {
   const host::Slate slate{{"H2O", "HCl", "NaOH"}, {}};
   solve_repeatedly(state, slate,
-                   {{"mode", std::string("target_ph")}, {"target_ph", 7.0}, {"energy", std::string("at_temperature")}},
+                   {{"mode", std::string("target_ph")}, {"target_ph", 7.0}, {"energy", std::string("at_temperature")}, {"curve_points", 2.0}},
                    solution(slate, 1.0, {{"HCl", 0.01}}, 298.15), solution(slate, 1.0, {{"NaOH", 0.1}}, 298.15));
 }
 BENCHMARK(target_ph_strong_acid)->Unit(benchmark::kMicrosecond);
@@ -65,7 +65,7 @@ BENCHMARK(target_ph_strong_acid)->Unit(benchmark::kMicrosecond);
 // search alternates doses and adiabatic temperatures.
 void target_ph_lime_adiabatic(benchmark::State& state) {
   const host::Slate slate{{"H2O", "H2SO4", "Ca(OH)2"}, {"gypsum", "portlandite"}};
-  solve_repeatedly(state, slate, {{"mode", std::string("target_ph")}, {"target_ph", 9.0}},
+  solve_repeatedly(state, slate, {{"mode", std::string("target_ph")}, {"target_ph", 9.0}, {"curve_points", 2.0}},
                    solution(slate, 0.98, {{"H2SO4", 0.02 / 0.0980785}}, 293.15),
                    solution(slate, 0.9, {{"Ca(OH)2", 0.1 / 0.0740927}}, 293.15));
 }
@@ -76,11 +76,22 @@ void target_ph_lime_at_temperature(benchmark::State& state) {
   const host::Slate slate{{"H2O", "H2SO4", "Ca(OH)2"}, {"gypsum", "portlandite"}};
   solve_repeatedly(state, slate,
                    {{"mode", std::string("target_ph")}, {"target_ph", 9.0}, {"energy", std::string("at_temperature")},
-                    {"outlet_temperature", 293.15}},
+                    {"outlet_temperature", 293.15}, {"curve_points", 2.0}},
                    solution(slate, 0.98, {{"H2SO4", 0.02 / 0.0980785}}, 293.15),
                    solution(slate, 0.9, {{"Ca(OH)2", 0.1 / 0.0740927}}, 293.15));
 }
 BENCHMARK(target_ph_lime_at_temperature)->Unit(benchmark::kMicrosecond);
+
+// A fixed dose of 0.1 mol/kg NaOH on 0.01 mol/kg HCl at equivalence, held at 25 °C, with a titration
+// curve of state.range(0) points up to twice that dose: the curve's cost is the difference between
+// 1,000 points and 2.
+void titration_curve(benchmark::State& state) {
+  const host::Slate slate{{"H2O", "HCl", "NaOH"}, {}};
+  solve_repeatedly(state, slate,
+                   {{"energy", std::string("at_temperature")}, {"curve_points", static_cast<double>(state.range(0))}},
+                   solution(slate, 1.0, {{"HCl", 0.01}}, 298.15), solution(slate, 0.1, {{"NaOH", 0.01}}, 298.15));
+}
+BENCHMARK(titration_curve)->Arg(2)->Arg(1000)->Unit(benchmark::kMicrosecond);
 
 }  // namespace
 
