@@ -32,7 +32,7 @@ class Neutraliser {
   static constexpr std::uint32_t all_phases = PFU_PHASE_AQUEOUS | PFU_PHASE_GAS | PFU_PHASE_SOLID;
   static constexpr const char* type = "neutraliser";
   static constexpr const char* summary =
-      "Doses a reagent into an acid or alkaline waste to a set flow or a target pH: precipitation, off-gas, heat, "
+      "Doses reagents into an acid or alkaline waste to a set flow or a target pH: precipitation, off-gas, heat, "
       "titration gain";
   static constexpr std::array ports{
       unit::inlet("feed", all_phases, "the waste to treat, acid or alkaline, solids allowed"),
@@ -46,7 +46,7 @@ class Neutraliser {
   static constexpr std::array<const char*, 2> energy_modes{"adiabatic", "at_temperature"};
   static constexpr std::array parameters{
       unit::choice("mode", modes, "fixed_reagent",
-                   "fixed_reagent: the reagent inlet's flow is dosed, the pH is the result; target_ph: the reagent "
+                   "fixed_reagent: the reagents are dosed as they come, the pH is the result; target_ph: the reagent "
                    "flow that gives target_ph is the result"),
       unit::number("target_ph", "1", 7.0, 0.0, 14.0, "the pH to dose to; used with mode target_ph only"),
       unit::number("max_reagent_ratio", "1", 1.0, 1e-9, 1e6,
