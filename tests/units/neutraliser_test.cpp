@@ -409,6 +409,12 @@ TEST_CASE("neutraliser property: pH rises with the dose; every target is met or 
     try {
       const Dose d = run(at_25c({{"mode", std::string("target_ph")}, {"target_ph", target}}), slate, feed, reagent);
       RC_ASSERT(std::abs(d.solution.results[outlet_ph] - target) <= 1e-6);
+      // Mass balance per component, product and off-gas against feed and dose, to round-off.
+      for (std::size_t c = 0; c < slate.components.size(); ++c) {
+        const double in = column_total(d.feed, slate, c) + d.scale() * column_total(d.reagent, slate, c);
+        const double out = column_total(d.product, slate, c) + column_total(d.off_gas, slate, c);
+        RC_ASSERT(std::abs(out - in) <= 1e-12 * in);
+      }
     } catch (const host::SolveError& error) {
       const std::string message = error.what();
       RC_ASSERT(message.find("unreachable") != std::string::npos ||
