@@ -12,8 +12,8 @@ namespace {
 AdiabaticOutlet dilute_98_percent(double target) {
   const ConcentratedBinary b = ConcentratedBinary::sulfuric_acid;
   const double water = 0.98 / target - 1.0;  // kg water per kg acid
-  const double h = (binary_specific_enthalpy(b, 298.15, 0.98) + water * binary_specific_enthalpy(b, 298.15, 0.0)) /
-                   (1.0 + water);
+  const double h =
+      (binary_specific_enthalpy(b, 298.15, 0.98) + water * binary_specific_enthalpy(b, 298.15, 0.0)) / (1.0 + water);
   return adiabatic_outlet(b, target, h, 101325.0);
 }
 

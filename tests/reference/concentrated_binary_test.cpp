@@ -2,13 +2,14 @@
 // that are not rows of the validation table, and against the thermodynamic identities the model
 // claims: Gibbs–Helmholtz, Gibbs–Duhem, Kirchhoff, and closed mass and energy balances on boiling.
 // Sources beside each assertion; keys in docs/references.md.
-#include <catch2/catch.hpp>
+#include "protonflow/thermo/concentrated_binary.hpp"
 
-#include <cmath>
 #include <fmt/format.h>
+
+#include <catch2/catch.hpp>
+#include <cmath>
 #include <limits>
 
-#include "protonflow/thermo/concentrated_binary.hpp"
 #include "protonflow/thermo/constants.hpp"
 #include "protonflow/thermo/stream_enthalpy.hpp"
 #include "python_reference.hpp"
@@ -165,7 +166,7 @@ TEST_CASE("H2SO4: 98 % acid diluted with water at 25 °C boils at 70 % and 50 %,
     if (!o.boiling) continue;
     const double v = o.vapour_fraction;
     CHECK(v > 0.0);
-    CHECK(o.vapour_solute_mass_fraction == 0.0);  // H2SO4 vapour is not modelled
+    CHECK(o.vapour_solute_mass_fraction == 0.0);                                        // H2SO4 vapour is not modelled
     CHECK((1.0 - v) * o.liquid_solute_mass_fraction == Approx(target).epsilon(1e-12));  // solute balance
     CHECK(o.temperature == Approx(bubble_temperature(b, o.liquid_solute_mass_fraction, atmosphere)).margin(1e-6));
     const double h_out = (1.0 - v) * binary_specific_enthalpy(b, o.temperature, o.liquid_solute_mass_fraction) +
@@ -220,12 +221,21 @@ TEST_CASE("concentrated binaries: outside the range a typed error names the quan
   // 38 % HCl boils below 273.15 K at 0.02 atm: the bubble point lies below the range, and says so.
   CHECK_THROWS_AS(bubble_temperature(hcl, 0.38, 0.02 * atmosphere), BinaryRangeError);
   CHECK_THROWS_AS(vapour_specific_enthalpy(ConcentratedBinary::sodium_hydroxide, 350.0, 0.1), ThermoError);
+  // 10 % HCl given 3 MJ/kg more than at its bubble point: one equilibrium stage would boil it all.
+  try {
+    const double t = bubble_temperature(hcl, 0.10, atmosphere);
+    adiabatic_outlet(hcl, 0.10, binary_specific_enthalpy(hcl, t, 0.10) + 3e6, atmosphere);
+    FAIL("no error for a feed that boils away");
+  } catch (const BinaryRangeError& e) {
+    CHECK(e.quantity().find("boil the whole feed") != std::string::npos);
+  }
 }
 
 TEST_CASE("concentrated binaries: the ionic scope says where a pH may be given, and why not beyond") {
   const IonicModelScope dilute = ionic_model_scope(ConcentratedBinary::sulfuric_acid, 0.05);
   CHECK(dilute.meaningful);
-  CHECK(dilute.solute_molality == Approx(0.05 / (0.95 * describe(ConcentratedBinary::sulfuric_acid).solute_molar_mass)));
+  CHECK(dilute.solute_molality ==
+        Approx(0.05 / (0.95 * describe(ConcentratedBinary::sulfuric_acid).solute_molar_mass)));
   const IonicModelScope concentrated = ionic_model_scope(ConcentratedBinary::sulfuric_acid, 0.98);
   CHECK_FALSE(concentrated.meaningful);
   CHECK(concentrated.reason.find("no meaningful pH") != std::string::npos);
@@ -268,43 +278,17 @@ TEST_CASE("concentrated binaries: at high dilution the enthalpy meets the engine
   }
 }
 
-TEST_CASE("concentrated binaries: densities away from 20 °C agree with published tables to 85 °C") {
-  // advancedthermo-densities (read): absolute densities of HCl, HNO3 and NaOH solutions, g/cm³, at
-  // molality m and temperature t. Only the 20 °C tables enter the model; the temperature dependence is
-  // water's own expansion plus the pure acid's (docs/concentrated-acids.md), checked here.
-  const struct {
-    ConcentratedBinary binary;
-    double molality, celsius, density;
-  } table[] = {{ConcentratedBinary::hydrochloric_acid, 6.0, 25.0, 1.08485},
-               {ConcentratedBinary::hydrochloric_acid, 6.0, 85.0, 1.05540},
-               {ConcentratedBinary::hydrochloric_acid, 3.0, 55.0, 1.03258},
-               {ConcentratedBinary::hydrochloric_acid, 1.0, 85.0, 0.98626},
-               {ConcentratedBinary::nitric_acid, 6.0, 25.0, 1.15873},
-               {ConcentratedBinary::nitric_acid, 6.0, 85.0, 1.11147},
-               {ConcentratedBinary::nitric_acid, 3.0, 55.0, 1.06945},
-               {ConcentratedBinary::sodium_hydroxide, 6.0, 25.0, 1.20866},
-               {ConcentratedBinary::sodium_hydroxide, 6.0, 85.0, 1.17227},
-               {ConcentratedBinary::sodium_hydroxide, 3.0, 55.0, 1.09840},
-               {ConcentratedBinary::sodium_hydroxide, 1.0, 85.0, 1.00878}};
-  for (const auto& row : table) {
-    INFO(describe(row.binary).solute << " " << row.molality << " mol/kg, " << row.celsius << " °C");
-    const double mass = row.molality * describe(row.binary).solute_molar_mass;
-    const double density = binary_properties(row.binary, row.celsius + 273.15, mass / (1.0 + mass)).density / 1e3;
-    CHECK(density == Approx(row.density).epsilon(0.005));  // Source: advancedthermo-densities
-  }
-}
-
-TEST_CASE("HCl: total vapour pressure at 20 °C against the International Critical Tables") {
-  // wikipedia-hydrochloric-acid (read): total vapour pressures at 20 °C, kPa, from the International
-  // Critical Tables. The model's water activity and HCl pressure are built at 25 °C from recalled
-  // mean activity coefficients and Brimblecombe & Clegg's Henry's-law constant; no pressure enters it.
-  // Within 5 % to 30 wt %; 10–14 % low at 32–36 wt % (docs/concentrated-acids.md), held to 15 %.
-  const double w[] = {0.10, 0.20, 0.30, 0.32, 0.34, 0.36, 0.38};
-  const double kilopascal[] = {1.95, 1.40, 2.13, 3.73, 7.24, 14.5, 28.3};
-  for (int k = 0; k < 7; ++k) {
-    INFO("w = " << w[k]);
-    const BinaryProperties p = binary_properties(ConcentratedBinary::hydrochloric_acid, 293.15, w[k]);
-    const double total = (p.water_vapour_pressure + p.solute_vapour_pressure) / 1e3;
-    CHECK(total == Approx(kilopascal[k]).epsilon(w[k] <= 0.30 ? 0.05 : 0.15));  // Source: wikipedia-hydrochloric-acid
-  }
+TEST_CASE("HCl: at the 6 mol/kg hand-over the binary holds Parker's heat of dilution that the dilute engine lacks") {
+  // The gap a mixer would see at the hand-over, binary minus engine enthalpy per mol HCl, is L_φ at
+  // 6 mol/kg: 6.268 kJ/mol (parker-1965, read). It is the term the Pitzer model's temperature
+  // derivatives supply (docs/concentrated-acids.md, "Where the ionic engine takes over").
+  using protonflow::reference::solve_recipe;
+  const double moles = 6.0;
+  const auto r = solve_recipe({{"HCl", moles}}, ActivityModelKind::davies);
+  const double engine = state_enthalpy(r.system, r.speciation);
+  const double solute_mass = moles * describe(ConcentratedBinary::hydrochloric_acid).solute_molar_mass;
+  const double total = r.speciation.water_mass + solute_mass;
+  const double binary =
+      total * binary_specific_enthalpy(ConcentratedBinary::hydrochloric_acid, 298.15, solute_mass / total);
+  CHECK((binary - engine) / moles / 1e3 == Approx(6.268).epsilon(0.03));  // Source: parker-1965
 }

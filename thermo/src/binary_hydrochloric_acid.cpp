@@ -10,7 +10,7 @@ namespace protonflow::thermo::detail {
 
 namespace {
 
-constexpr double molar_mass = 0.03646094;  // kg/mol, python3-periodictable (iupac-atomic-weights)
+constexpr double molar_mass = 0.03646094;        // kg/mol, python3-periodictable (iupac-atomic-weights)
 constexpr double formation_enthalpy = -92307.0;  // ΔfH° HCl(g), J/mol: nbs-1982 (REFERENCE-VALUES.md)
 constexpr double heat_capacity_gas = 29.12;      // Cp° HCl(g), J/(mol K): nbs-1982 (from memory)
 // HCl(g) → H^+ + Cl^- at infinite dilution, J/mol: nbs-1982, −167.159 + 92.307 (REFERENCE-VALUES.md).
@@ -24,10 +24,10 @@ struct RelativeEnthalpy {
   double n, l_phi;
 };
 constexpr RelativeEnthalpy parker[] = {
-    {1.0, 45.61},   {2.775, 19.87}, {3.700, 15.40}, {5.551, 10.24}, {6.167, 9.213}, {6.938, 8.201},
-    {7.929, 7.217}, {9.251, 6.268}, {10.0, 5.841},  {11.10, 5.318}, {12.33, 4.899}, {13.88, 4.402},
-    {15.86, 3.958}, {18.50, 3.506}, {22.20, 3.063}, {27.75, 2.623}, {37.00, 2.167}, {55.51, 1.695},
-    {100.0, 1.234}, {111.0, 1.172}, {277.5, 0.761}, {555.1, 0.556}, {1000.0, 0.427}, {2000.0, 0.310},
+    {1.0, 45.61},    {2.775, 19.87},   {3.700, 15.40},   {5.551, 10.24}, {6.167, 9.213},  {6.938, 8.201},
+    {7.929, 7.217},  {9.251, 6.268},   {10.0, 5.841},    {11.10, 5.318}, {12.33, 4.899},  {13.88, 4.402},
+    {15.86, 3.958},  {18.50, 3.506},   {22.20, 3.063},   {27.75, 2.623}, {37.00, 2.167},  {55.51, 1.695},
+    {100.0, 1.234},  {111.0, 1.172},   {277.5, 0.761},   {555.1, 0.556}, {1000.0, 0.427}, {2000.0, 0.310},
     {5000.0, 0.197}, {10000.0, 0.142}, {50000.0, 0.067},
 };
 
@@ -44,11 +44,10 @@ SmoothTable heat_of_solution_table() {
 // 3 mol/kg values are those of REFERENCE-VALUES.md). The osmotic coefficients they imply by
 // Gibbs–Duhem, 1.038 at 1 mol/kg and 1.347 at 3 mol/kg, match the tabulated 1.039 and 1.348.
 const UniUnivalentIsotherm& isotherm() {
-  static const UniUnivalentIsotherm curve(
-      17.0,
-      {0.001, 0.01, 0.1, 0.2, 0.5, 1.0, 1.5, 2.0, 2.5, 3.0, 3.5, 4.0, 5.0, 6.0, 7.0, 8.0, 9.0, 10.0, 12.0, 14.0, 16.0},
-      {0.965, 0.905, 0.796, 0.767, 0.757, 0.809, 0.896, 1.009, 1.147, 1.316, 1.518, 1.762, 2.380, 3.220, 4.37, 5.90,
-       7.94, 10.44, 17.25, 27.3, 42.4});
+  static const UniUnivalentIsotherm curve(17.0, {0.001, 0.01, 0.1, 0.2, 0.5, 1.0, 1.5,  2.0,  2.5,  3.0, 3.5,
+                                                 4.0,   5.0,  6.0, 7.0, 8.0, 9.0, 10.0, 12.0, 14.0, 16.0},
+                                          {0.965, 0.905, 0.796, 0.767, 0.757, 0.809, 0.896, 1.009, 1.147, 1.316, 1.518,
+                                           1.762, 2.380, 3.220, 4.37,  5.90,  7.94,  10.44, 17.25, 27.3,  42.4});
   return curve;
 }
 
@@ -62,7 +61,8 @@ SmoothTable heat_capacity_table() {
 // Density at 20 °C, kg/m³: crc-concentrative-properties (read, REFERENCE-VALUES.md) at 10, 20, 30 and 36 wt %;
 // wikipedia-hydrochloric-acid (read) at 32, 34 and 38 wt %; pure water from IAPWS-95.
 SmoothTable density_table() {
-  return {{0.0, 0.10, 0.20, 0.30, 0.32, 0.34, 0.36, 0.38}, {998.21, 1047.6, 1098.0, 1149.2, 1159.0, 1169.0, 1179.1, 1189.0}};
+  return {{0.0, 0.10, 0.20, 0.30, 0.32, 0.34, 0.36, 0.38},
+          {998.21, 1047.6, 1098.0, 1149.2, 1159.0, 1169.0, 1179.1, 1189.0}};
 }
 
 BinaryData make_data() {

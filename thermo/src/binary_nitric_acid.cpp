@@ -46,7 +46,8 @@ constexpr double slope_beyond_3_molal = 0.0425;  // per mol/kg, fitted (above)
 
 const UniUnivalentIsotherm& isotherm() {
   static const UniUnivalentIsotherm curve(40.0, {0.001, 0.01, 0.1, 0.2, 0.5, 1.0, 1.5, 2.0, 2.5, 3.0},
-                                          {0.965, 0.902, 0.791, 0.754, 0.720, 0.724, 0.753, 0.793, 0.846, 0.909}, slope_beyond_3_molal);
+                                          {0.965, 0.902, 0.791, 0.754, 0.720, 0.724, 0.753, 0.793, 0.846, 0.909},
+                                          slope_beyond_3_molal);
   return curve;
 }
 
@@ -81,6 +82,7 @@ BinaryData make_data() {
       [](double x) { return isotherm().ln_water_activity(x); },
       [](double x) { return isotherm().ln_solute_activity(x) - std::log(henry_constant) + std::log(atmosphere); },
       3.0,  // mol/kg: the range of the HNO3 ion-interaction parameters (pitzer-1991, from memory)
+      // Molecular HNO3 from Raman spectra: pKa −1.55 at 25 °C (levanov-isaikina-lunin-2017).
       "water is the solvent and HNO3 is dissociated to H^+ and NO3^-; the ionic engine describes it and a pH is "
       "meaningful",
       "beyond 3 mol/kg (about 16 wt %) the ion-interaction parameters are not fitted and, increasingly, HNO3 is "

@@ -14,9 +14,7 @@ constexpr double molar_mass = 0.03999711;  // kg/mol, python3-periodictable (iup
 // NaOH(s) → Na^+ + OH^- at infinite dilution, J/mol: nbs-1982 (REFERENCE-VALUES.md).
 constexpr double solution_enthalpy_at_infinite_dilution = -44510.0;
 
-double mole_fraction(double w) {
-  return (w / molar_mass) / (w / molar_mass + (1.0 - w) / constants::water_molar_mass);
-}
+double mole_fraction(double w) { return (w / molar_mass) / (w / molar_mass + (1.0 - w) / constants::water_molar_mass); }
 
 // The 25 °C isotherm, evaluated from the correlations of olsson-1997 (their enthalpy, vapour-pressure
 // and density equations; coefficients read from a public transcription, values computed here):
@@ -58,15 +56,15 @@ BinaryData make_data() {
   const SmoothTable ln_water_activity = column(&Isotherm::water_activity, 1.0, true);
   return BinaryData{
       {"NaOH", molar_mass, "s", {0.0, 0.50, 273.15, 473.15}},
-      -425609.0,  // ΔfH° NaOH(s), J/mol: nbs-1982 (REFERENCE-VALUES.md)
-      59.54,      // Cp° NaOH(s), J/(mol K): nbs-1982 (from memory)
+      -425609.0,                                 // ΔfH° NaOH(s), J/mol: nbs-1982 (REFERENCE-VALUES.md)
+      59.54,                                     // Cp° NaOH(s), J/(mol K): nbs-1982 (from memory)
       std::numeric_limits<double>::quiet_NaN(),  // NaOH is not volatile
       std::numeric_limits<double>::quiet_NaN(),
       heat_of_solution_table(),
       // Pure water 4181.3 J/(kg K) from IAPWS-95 (iapws-95): the correlation is 2 % high there.
       column(&Isotherm::heat_capacity, 4181.3, false),
       column(&Isotherm::density, 998.21, false),  // pure water from IAPWS-95 (iapws-95)
-      [](double) { return 0.0; },  // a solid reference: water's expansion alone
+      [](double) { return 0.0; },                 // a solid reference: water's expansion alone
       [ln_water_activity](double x) { return ln_water_activity(x); },
       {},
       6.0,  // mol/kg: the range of the NaOH ion-interaction parameters (pitzer-1991, from memory)

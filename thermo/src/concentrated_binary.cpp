@@ -3,10 +3,11 @@
 // capacity and vapour pressures come from one consistent set. Equations: docs/concentrated-acids.md.
 #include "protonflow/thermo/concentrated_binary.hpp"
 
+#include <fmt/format.h>
+
 #include <boost/math/tools/roots.hpp>
 #include <cmath>
 #include <cstdint>
-#include <fmt/format.h>
 #include <limits>
 
 #include "concentrated_binary_data.hpp"
@@ -34,10 +35,14 @@ constexpr double steam_heat_capacity = 33.58;
 
 const BinaryData& data_of(ConcentratedBinary binary) {
   switch (binary) {
-    case ConcentratedBinary::sulfuric_acid: return detail::sulfuric_acid_data();
-    case ConcentratedBinary::hydrochloric_acid: return detail::hydrochloric_acid_data();
-    case ConcentratedBinary::nitric_acid: return detail::nitric_acid_data();
-    case ConcentratedBinary::sodium_hydroxide: return detail::sodium_hydroxide_data();
+    case ConcentratedBinary::sulfuric_acid:
+      return detail::sulfuric_acid_data();
+    case ConcentratedBinary::hydrochloric_acid:
+      return detail::hydrochloric_acid_data();
+    case ConcentratedBinary::nitric_acid:
+      return detail::nitric_acid_data();
+    case ConcentratedBinary::sodium_hydroxide:
+      return detail::sodium_hydroxide_data();
   }
   throw ThermoError(ErrorKind::bad_input, "unknown concentrated binary");
 }
@@ -47,7 +52,8 @@ std::string binary_name(ConcentratedBinary binary) { return fmt::format("{}–H2
 void check_mass_fraction(ConcentratedBinary binary, double mass_fraction) {
   const BinaryRange& range = data_of(binary).description.range;
   if (std::isnan(mass_fraction))
-    throw ThermoError(ErrorKind::bad_input, fmt::format("{}: the solute mass fraction is not a number", binary_name(binary)));
+    throw ThermoError(ErrorKind::bad_input,
+                      fmt::format("{}: the solute mass fraction is not a number", binary_name(binary)));
   if (mass_fraction < range.minimum_mass_fraction || mass_fraction > range.maximum_mass_fraction)
     throw BinaryRangeError(binary, "solute mass fraction", mass_fraction, range.minimum_mass_fraction,
                            range.maximum_mass_fraction);
@@ -58,7 +64,8 @@ void check_temperature(ConcentratedBinary binary, double temperature) {
   if (std::isnan(temperature))
     throw ThermoError(ErrorKind::bad_input, fmt::format("{}: the temperature is not a number", binary_name(binary)));
   if (temperature < range.minimum_temperature || temperature > range.maximum_temperature)
-    throw BinaryRangeError(binary, "temperature (K)", temperature, range.minimum_temperature, range.maximum_temperature);
+    throw BinaryRangeError(binary, "temperature (K)", temperature, range.minimum_temperature,
+                           range.maximum_temperature);
 }
 
 double solute_molar_mass(const BinaryData& d) { return d.description.solute_molar_mass; }
@@ -68,7 +75,9 @@ double mole_fraction(const BinaryData& d, double mass_fraction) {
   return solute / (solute + water);
 }
 
-double mean_molar_mass(const BinaryData& d, double x) { return (1.0 - x) * water_molar_mass + x * solute_molar_mass(d); }
+double mean_molar_mass(const BinaryData& d, double x) {
+  return (1.0 - x) * water_molar_mass + x * solute_molar_mass(d);
+}
 
 // Δcp: the solution's specific heat capacity less that of its unmixed components at 298.15 K, J/(kg K),
 // and its slope against mass fraction.
@@ -104,7 +113,8 @@ Partials relative_heat_capacities(const BinaryData& d, double x) {
   const double ms = solute_molar_mass(d), mean = mean_molar_mass(d, x);
   const double w = x * ms / mean, dw_dx = ms * water_molar_mass / (mean * mean);
   const double per_mole = mixing_heat_capacity(d, w) * mean;
-  const double slope = mixing_heat_capacity_slope(d, w) * dw_dx * mean + mixing_heat_capacity(d, w) * (ms - water_molar_mass);
+  const double slope =
+      mixing_heat_capacity_slope(d, w) * dw_dx * mean + mixing_heat_capacity(d, w) * (ms - water_molar_mass);
   return partials(per_mole, slope, x);
 }
 
@@ -123,7 +133,8 @@ double ln_water_activity(const BinaryData& d, double temperature, double x) {
 // ∂ ln p / ∂T = (H_gas − H̄_solute) / (R T²), both against the pure solute's reference phase.
 double solute_vapour_pressure(const BinaryData& d, double temperature, double x) {
   if (!d.ln_solute_pressure || x == 0.0) return 0.0;
-  const double vaporisation = d.vapour_formation_enthalpy - d.solute_formation_enthalpy - relative_enthalpies(d, x).solute;
+  const double vaporisation =
+      d.vapour_formation_enthalpy - d.solute_formation_enthalpy - relative_enthalpies(d, x).solute;
   const double change = d.vapour_heat_capacity - d.solute_heat_capacity - relative_heat_capacities(d, x).solute;
   return std::exp(d.ln_solute_pressure(x) + gibbs_helmholtz(vaporisation, change, temperature));
 }
@@ -135,7 +146,8 @@ double water_vapour_pressure(const BinaryData& d, double temperature, double x) 
 
 double specific_enthalpy(const BinaryData& d, double temperature, double w) {
   const double water = (water_formation_enthalpy + liquid_water_enthalpy_change(temperature)) / water_molar_mass;
-  const double solute = (d.solute_formation_enthalpy + d.solute_heat_capacity * (temperature - t0)) / solute_molar_mass(d);
+  const double solute =
+      (d.solute_formation_enthalpy + d.solute_heat_capacity * (temperature - t0)) / solute_molar_mass(d);
   return (1.0 - w) * water + w * solute + mixing_enthalpy_per_kg(d, temperature, w);
 }
 
@@ -225,13 +237,15 @@ double vapour_specific_enthalpy(ConcentratedBinary binary, double temperature, d
   check_temperature(binary, temperature);
   const BinaryData& d = data_of(binary);
   if (std::isnan(solute_mass_fraction) || solute_mass_fraction < 0.0 || solute_mass_fraction > 1.0)
-    throw ThermoError(ErrorKind::bad_input, fmt::format("{}: a vapour mass fraction must lie in 0–1", binary_name(binary)));
+    throw ThermoError(ErrorKind::bad_input,
+                      fmt::format("{}: a vapour mass fraction must lie in 0–1", binary_name(binary)));
   const double steam = (steam_formation_enthalpy + steam_heat_capacity * (temperature - t0)) / water_molar_mass;
   if (solute_mass_fraction == 0.0) return steam;
   if (std::isnan(d.vapour_formation_enthalpy))
     throw ThermoError(ErrorKind::bad_input,
                       fmt::format("{}: the model has no vapour of {}", binary_name(binary), d.description.solute));
-  const double solute = (d.vapour_formation_enthalpy + d.vapour_heat_capacity * (temperature - t0)) / solute_molar_mass(d);
+  const double solute =
+      (d.vapour_formation_enthalpy + d.vapour_heat_capacity * (temperature - t0)) / solute_molar_mass(d);
   return (1.0 - solute_mass_fraction) * steam + solute_mass_fraction * solute;
 }
 
@@ -282,10 +296,12 @@ double bubble_vapour_mass_fraction(ConcentratedBinary binary, double solute_mass
   return solute / (solute + water);
 }
 
-AdiabaticOutlet adiabatic_outlet(ConcentratedBinary binary, double solute_mass_fraction, double enthalpy, double pressure) {
+AdiabaticOutlet adiabatic_outlet(ConcentratedBinary binary, double solute_mass_fraction, double enthalpy,
+                                 double pressure) {
   check_mass_fraction(binary, solute_mass_fraction);
   if (!std::isfinite(enthalpy))
-    throw ThermoError(ErrorKind::bad_input, fmt::format("{}: the enthalpy is not a finite number", binary_name(binary)));
+    throw ThermoError(ErrorKind::bad_input,
+                      fmt::format("{}: the enthalpy is not a finite number", binary_name(binary)));
   const BinaryData& d = data_of(binary);
   const BinaryRange& range = d.description.range;
   const double w = solute_mass_fraction;
@@ -306,7 +322,8 @@ AdiabaticOutlet adiabatic_outlet(ConcentratedBinary binary, double solute_mass_f
   }
   const double f_top = liquid_mismatch(top);
   if (f_top >= 0.0) {
-    const double t = f_top == 0.0 ? top : bracketed_root(liquid_mismatch, low, top, f_low, f_top, "adiabatic temperature");
+    const double t =
+        f_top == 0.0 ? top : bracketed_root(liquid_mismatch, low, top, f_low, f_top, "adiabatic temperature");
     return {t, w, 0.0, 0.0, false};
   }
   if (!can_boil)
@@ -326,14 +343,15 @@ AdiabaticOutlet adiabatic_outlet(ConcentratedBinary binary, double solute_mass_f
     return (1.0 - vapour) * specific_enthalpy(d, t, wl) + vapour * vapour_specific_enthalpy(binary, t, y) - enthalpy;
   };
   if (std::abs(y0 - w) < 1e-9) {  // an azeotrope boils without changing composition
-    const double vapour = (enthalpy - specific_enthalpy(d, top, w)) / (vapour_specific_enthalpy(binary, top, y0) -
-                                                                       specific_enthalpy(d, top, w));
+    const double vapour = (enthalpy - specific_enthalpy(d, top, w)) /
+                          (vapour_specific_enthalpy(binary, top, y0) - specific_enthalpy(d, top, w));
     if (vapour >= 1.0) throw BinaryRangeError(binary, "vapour fraction (kg/kg) on boiling", vapour, 0.0, 1.0);
     return {top, w, vapour, y0, true};
   }
   // The liquid moves away from its vapour's composition; step until the energy balance changes sign.
   const double end = y0 < w ? range.maximum_mass_fraction : range.minimum_mass_fraction;
   constexpr int steps = 64;
+  bool boils_away = false;
   double previous = w, f_previous = boiling_mismatch(w);
   for (int k = 1; k <= steps; ++k) {
     const double wl = w + (end - w) * k / steps;
@@ -343,8 +361,12 @@ AdiabaticOutlet adiabatic_outlet(ConcentratedBinary binary, double solute_mass_f
     } catch (const BinaryRangeError&) {
       break;
     }
-    if (!(vapour >= 0.0 && vapour < 1.0)) break;
-    const double f = (1.0 - vapour) * specific_enthalpy(d, t, wl) + vapour * vapour_specific_enthalpy(binary, t, y) - enthalpy;
+    if (!(vapour >= 0.0 && vapour < 1.0)) {
+      boils_away = true;
+      break;
+    }
+    const double f =
+        (1.0 - vapour) * specific_enthalpy(d, t, wl) + vapour * vapour_specific_enthalpy(binary, t, y) - enthalpy;
     if (f >= 0.0) {
       const double root = bracketed_root(boiling_mismatch, std::min(previous, wl), std::max(previous, wl),
                                          previous < wl ? f_previous : f, previous < wl ? f : f_previous,
@@ -355,6 +377,8 @@ AdiabaticOutlet adiabatic_outlet(ConcentratedBinary binary, double solute_mass_f
     previous = wl;
     f_previous = f;
   }
+  if (boils_away)  // one equilibrium stage cannot take up this much heat: the whole feed would boil
+    throw BinaryRangeError(binary, "vapour made per kg fed (the heat would boil the whole feed)", infinity, 0.0, 1.0);
   throw BinaryRangeError(binary, "liquid mass fraction left on boiling", y0 < w ? infinity : -infinity,
                          range.minimum_mass_fraction, range.maximum_mass_fraction);
 }

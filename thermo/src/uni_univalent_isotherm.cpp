@@ -27,8 +27,7 @@ std::vector<double> logarithms(const std::vector<double>& gamma) {
 
 }  // namespace
 
-UniUnivalentIsotherm::UniUnivalentIsotherm(double largest_molality,
-                                           const std::vector<double>& molality,
+UniUnivalentIsotherm::UniUnivalentIsotherm(double largest_molality, const std::vector<double>& molality,
                                            const std::vector<double>& mean_activity_coefficient)
     : UniUnivalentIsotherm(largest_molality, molality, mean_activity_coefficient,
                            std::numeric_limits<double>::quiet_NaN()) {}

@@ -32,7 +32,7 @@ class UniUnivalentIsotherm {
   double integral_ln_gamma(double molality) const;
   double segment_integral(double from, double to) const;
   double last_molality_, last_ln_gamma_, last_slope_;
-  SmoothTable ln_gamma_;           // against √m, so that the Debye–Hückel √m start is smooth
+  SmoothTable ln_gamma_;                 // against √m, so that the Debye–Hückel √m start is smooth
   std::vector<double> grid_, integral_;  // ∫₀^m ln γ± dm on a fine grid of m
 };
 

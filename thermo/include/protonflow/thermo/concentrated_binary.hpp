@@ -103,7 +103,7 @@ double pure_solute_specific_enthalpy(ConcentratedBinary binary, double temperatu
 double vapour_specific_enthalpy(ConcentratedBinary binary, double temperature, double solute_mass_fraction);
 
 // Bubble (boiling) temperature, K, of the liquid at pressure p (Pa): p_H2O + p_solute = p.
-// Throws BinaryRangeError when it lies above the model's temperature range.
+// Throws BinaryRangeError (value ±infinity) when it lies above or below the model's temperature range.
 double bubble_temperature(ConcentratedBinary binary, double solute_mass_fraction, double pressure);
 
 // Mass fraction of solute in the vapour in equilibrium with the liquid at its bubble point.
