@@ -12,6 +12,7 @@
 #include <protonflow/unit_module.hpp>
 
 #include <protonflow/thermo/chemical_system.hpp>
+#include <protonflow/units/dry_stream.hpp>
 #include <protonflow/units/equilibrium_stream.hpp>
 #include <protonflow/units/phase_placement.hpp>
 #include <protonflow/units/product_warnings.hpp>
@@ -128,6 +129,8 @@ class Neutraliser {
   EquilibriumStream feed_;
   EquilibriumStream reagent_;                  // every reagent together: the titration's
   std::vector<EquilibriumStream> reagent_streams_;  // one per reagent stream, for its enthalpy
+  std::vector<bool> reagent_dry_;                   // per reagent stream: no aqueous phase (dry lime, say)
+  DryStream dry_;                                   // the enthalpy of a dry reagent, its phases as given
   EquilibriumStream product_;
   Titration titration_;
   InletPhases inlet_phases_;
