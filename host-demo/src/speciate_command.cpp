@@ -10,6 +10,8 @@
 #include "protonflow/thermo/database.hpp"
 #include "protonflow/thermo/equilibrium_solver.hpp"
 #include "protonflow/thermo/errors.hpp"
+#include "protonflow/thermo/pitzer_coverage.hpp"
+#include "protonflow/thermo/pitzer_enthalpy.hpp"
 #include "protonflow/thermo/stream_enthalpy.hpp"
 #include "protonflow/thermo/tableau.hpp"
 #include "quantity.hpp"
@@ -99,6 +101,7 @@ SpeciationReport make_report(const SolutionInput& input, const thermo::ChemicalS
   report.name = input.name;
   report.activity_model = std::string(to_string(input.activity_model));
   report.amounts_as = std::string(to_string(input.basis));
+  report.precipitates = thermo::to_string(input.precipitates);
   report.components = system.components();
   report.closure = measure_closure(system, amounts, speciation);
   report.component_amounts = std::move(amounts);
@@ -106,8 +109,10 @@ SpeciationReport make_report(const SolutionInput& input, const thermo::ChemicalS
     report.solutes.push_back(SoluteLabel{solute.name, solute.charge});
   }
   report.warnings = thermo::describe_warnings(speciation);
+  const auto excess = thermo::make_excess_enthalpy_model(system);
+  for (std::string& line : thermo::describe_pitzer_coverage(system, speciation)) report.warnings.push_back(std::move(line));
   try {
-    report.enthalpy = thermo::state_enthalpy(system, speciation);
+    report.enthalpy = thermo::state_enthalpy(system, speciation, excess.get());
   } catch (const thermo::ThermoError& error) {
     report.enthalpy_unavailable = error.what();
   }
@@ -115,7 +120,12 @@ SpeciationReport make_report(const SolutionInput& input, const thermo::ChemicalS
   for (const thermo::PhaseSpecies& gas : system.open_gases()) report.open_gases.push_back(gas.name);
   for (const thermo::PhaseSpecies& gas : system.phase_gases()) report.phase_gases.push_back(gas.name);
   for (std::size_t p = 0; p < system.solids().size(); ++p)
-    if (speciation.solid_amount[p] > 0.0) report.warnings.push_back(fmt::format("{} precipitates", system.solids()[p].name));
+    if (speciation.solid_amount[p] > 0.0) {
+      const thermo::PhaseSpecies& solid = system.solids()[p];
+      report.warnings.push_back(solid.age == thermo::PrecipitateAge::any
+                                    ? fmt::format("{} precipitates", solid.name)
+                                    : fmt::format("{} precipitates (the {} form)", solid.name, thermo::to_string(solid.age)));
+    }
   if (speciation.gas_phase_present)
     report.warnings.push_back("a gas phase forms: the solution degasses or boils at this temperature and pressure");
   report.speciation = std::move(speciation);
@@ -144,6 +154,7 @@ int speciate(const SpeciateOptions& options, std::ostream& out, std::ostream& er
     thermo::SystemOptions system_options;
     system_options.activity = input.activity_model;
     system_options.gas_phase = input.gas_phase;
+    system_options.precipitates = input.precipitates;
     for (const PhaseEntry& gas : input.open_gases) system_options.open_gases.push_back(gas.name);
     if (input.all_solids) {
       const thermo::ChemicalSystem without(database, slate.names, system_options);
@@ -160,7 +171,8 @@ int speciate(const SpeciateOptions& options, std::ostream& out, std::ostream& er
     thermo::EquilibriumSolver solver(system, solver_options);
     thermo::Speciation speciation;
     if (input.enthalpy) {
-      thermo::solve_at_enthalpy(solver, *input.enthalpy, input.pressure, amounts, pressures, speciation);
+      const auto excess = thermo::make_excess_enthalpy_model(system);
+      thermo::solve_at_enthalpy(solver, *input.enthalpy, input.pressure, amounts, pressures, speciation, excess.get());
     } else {
       solver.solve(input.temperature, input.pressure, amounts, pressures, speciation);
     }

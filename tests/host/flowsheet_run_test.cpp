@@ -165,7 +165,7 @@ TEST_CASE("a recycle that does not converge is an error with its history, and no
   CHECK_FALSE(fs::exists(results));
 }
 
-TEST_CASE("a unit's warnings are printed once, at the unit's line of the flowsheet; the report points there") {
+TEST_CASE("a unit's warnings are printed once, at the unit's line of the flowsheet, and the report points there") {
   const ProgramRun warned = run(cases / "hot-mix.yaml");
   INFO("stdout: " << warned.out << "\nstderr: " << warned.err);
   CHECK(warned.exit_code == 0);

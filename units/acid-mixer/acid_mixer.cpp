@@ -112,10 +112,10 @@ void AcidMixer::solve(std::span<const unit::InletState> inlets, std::span<unit::
   // Concentrated acid or caustic and water alone: the binary model. Anything else: the engine.
   std::optional<thermo::ConcentratedBinary> binary;
   bool all_binary = true;
-  for (std::size_t k = 0; k < inlets.size() && all_binary; ++k) {
+  for (std::size_t k = 0; k < inlets.size(); ++k) {
     inlets_[k].binary = binary_composition(columns_, *system_, inlets[k]);
     if (!inlets_[k].binary) {
-      all_binary = inlets_[k].mass == 0.0;
+      all_binary = all_binary && inlets_[k].mass == 0.0;
       continue;
     }
     if (const auto solute = inlets_[k].binary->binary) {
