@@ -150,7 +150,7 @@ void ColumnEquations::residual_block(std::size_t j, const StageEquilibrium& abov
     const std::size_t k = component_gas_[c];
     const double in = liquid_in[c] + (k == StageModel::no_component ? 0.0 : gas_in[k]);
     const double out = liquid_out[c] + (k == StageModel::no_component ? 0.0 : gas_out[k]);
-    f[slot++] = (in - out) / (in + out);
+    f[slot++] = std::log(in) - std::log(out);
   }
   for (const std::size_t k : gas_unknowns_) {
     if (model_.gas_component(k) == StageModel::no_component) {

@@ -4,7 +4,7 @@
 //
 // Unknowns, block j for stage j (top first): ln l_jc for every liquid component that can be
 // present, ln v_jk for every gas that can be present, T_j. Residuals, block j, in the same order:
-//   balance of c:     (in − out) / (in + out),  in = l_(j−1)c + v_(j+1)k(c),  out = l_jc + v_jk(c)
+//   balance of c:     ln(in) − ln(out),  in = l_(j−1)c + v_(j+1)k(c),  out = l_jc + v_jk(c)
 //   gas k dissolving: ln v_jk − ln(V_j [(1 − E_k) y_(j+1)k + E_k p*_jk / P])        (Murphree)
 //   gas k inert:      ln v_jk − ln v_(j+1)k
 //   energy:           (H_L,j−1 + H_V,j+1 − H_L,j − H_V,j) / (F c_scale)

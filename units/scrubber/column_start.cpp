@@ -24,7 +24,7 @@ constexpr double liquid_heat_capacity = 75.3;
 constexpr double gas_heat_capacity = 33.6;
 constexpr double largest_temperature_step = 20.0;  // K per sweep
 // Floor for flows in the start, relative to the throughput: ln of a flow stays finite.
-constexpr double flow_floor = 1e-200;
+constexpr double flow_floor = 1e-30;
 
 // Solves a_j l_(j−1) + b_j l_j + c_j l_(j+1) = d_j for j = 0 … n−1 (a_0 and c_(n−1) unused),
 // overwriting d with the answer; b is overwritten too. Thomas algorithm (Conte & de Boor 1980).
@@ -47,10 +47,18 @@ ColumnProfile ColumnEquations::start_profile() {
   const double floor = flow_floor * flow_scale_;
   const double t_low = model_.minimum_temperature() + 0.5;
   const double t_high = model_.maximum_temperature() - 0.5;
-  // Every stage at the feeds' flows and the liquor's temperature; what a feed lacks starts at the floor.
+  // Every stage at the liquor's temperature, with half of each dissolving gas in the liquid and
+  // half in the gas: a start from which the sweeps move by factors, never from nothing.
   for (std::size_t j = 0; j < n; ++j) {
-    for (const std::size_t c : liquid_unknowns_) l_[j * liquid_count_ + c] = std::max(feeds_.liquid[c], floor);
-    for (const std::size_t k : gas_unknowns_) v_[j * gas_count_ + k] = std::max(feeds_.gas[k], floor);
+    for (const std::size_t c : liquid_unknowns_) {
+      const std::size_t k = component_gas_[c];
+      l_[j * liquid_count_ + c] = std::max(feeds_.liquid[c] + (k == StageModel::no_component ? 0.0 : 0.5 * feeds_.gas[k]), floor);
+    }
+    for (const std::size_t k : gas_unknowns_) {
+      const std::size_t c = model_.gas_component(k);
+      const double from_liquid = c == StageModel::no_component ? 0.0 : 0.5 * feeds_.liquid[c];
+      v_[j * gas_count_ + k] = std::max(model_.gas_component(k) == StageModel::no_component ? feeds_.gas[k] : 0.5 * feeds_.gas[k] + from_liquid, floor);
+    }
     t_[j] = std::clamp(feeds_.liquid_temperature, t_low, t_high);
   }
   const auto total = [](const double* values, std::size_t count) {
