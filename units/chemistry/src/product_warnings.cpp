@@ -1,8 +1,8 @@
-#include "product_warnings.hpp"
+#include <protonflow/units/product_warnings.hpp>
 
 #include <cstddef>
 
-#include "message_text.hpp"
+#include <protonflow/units/message_text.hpp>
 
 namespace protonflow::units {
 
