@@ -50,7 +50,7 @@ BalanceClosure measure_closure(const thermo::ChemicalSystem& system, std::span<c
     for (std::size_t g = 0; g < system.phase_gases().size(); ++g)
       found.add(speciation.gas_amount[g] * system.phase_gases()[g].stoichiometry[b]);
     if (b == 0) {
-      // The solver balances H+ through the charge balance, so the proton balance closes to the
+      // The solver balances H^+ through the charge balance, so the proton balance closes to the
       // charge balance's accuracy: measure it against the equivalents in solution, not against its
       // own terms, which in a neutral solution are a millionth of them.
       for (std::size_t i = 0; i < solutes.size(); ++i)

@@ -22,7 +22,7 @@ bool plain_safe(std::string_view text) {
   if (!((text[0] >= 'A' && text[0] <= 'Z') || (text[0] >= 'a' && text[0] <= 'z'))) return false;
   return std::ranges::all_of(text, [](char c) {
     return (c >= 'A' && c <= 'Z') || (c >= 'a' && c <= 'z') || (c >= '0' && c <= '9') || c == '_' || c == '-' ||
-           c == '(' || c == ')' || c == '.' || c == '+';
+           c == '(' || c == ')' || c == '.' || c == '+' || c == '^';
   });
 }
 

@@ -1,6 +1,6 @@
 // The speciation benchmark of docs/performance.md: water with totals of Na, Cl, S(VI), C(IV),
-// N(−III) and Ca at 25 °C, Davies activity, secondary species OH-, HSO4-, HCO3-, CO2(aq), NH3,
-// CaSO4°, NaSO4-, CaCO3°; totals log-uniform in 1e-3…1e-1 mol/kg.
+// N(−III) and Ca at 25 °C, Davies activity, secondary species OH^-, HSO4^-, HCO3^-, CO2(aq), NH3,
+// CaSO4°, NaSO4^-, CaCO3°; totals log-uniform in 1e-3…1e-1 mol/kg.
 #include <benchmark/benchmark.h>
 
 #include <algorithm>
@@ -29,7 +29,7 @@ const Database& database() {
 ChemicalSystem benchmark_system() {
   SystemOptions options;
   options.activity = ActivityModelKind::davies;
-  options.secondary_species = {"OH-", "HSO4-", "HCO3-", "CO2(aq)", "NH3(aq)", "CaSO4(aq)", "NaSO4-", "CaCO3(aq)"};
+  options.secondary_species = {"OH^-", "HSO4^-", "HCO3^-", "CO2(aq)", "NH3(aq)", "CaSO4(aq)", "NaSO4^-", "CaCO3(aq)"};
   return ChemicalSystem(database(), {"H2O", "NaOH", "HCl", "H2SO4", "CO2", "NH3", "Ca(OH)2"}, options);
 }
 
@@ -130,7 +130,7 @@ BENCHMARK(speciation_cold)->Unit(benchmark::kMicrosecond);
 ChemicalSystem system_with_phases() {
   SystemOptions options;
   options.activity = ActivityModelKind::davies;
-  options.secondary_species = {"OH-", "HSO4-", "HCO3-", "CO2(aq)", "NH3(aq)", "CaSO4(aq)", "NaSO4-", "CaCO3(aq)"};
+  options.secondary_species = {"OH^-", "HSO4^-", "HCO3^-", "CO2(aq)", "NH3(aq)", "CaSO4(aq)", "NaSO4^-", "CaCO3(aq)"};
   options.allowed_solids = {"calcite", "gypsum"};
   options.open_gases = {"CO2(g)"};
   return ChemicalSystem(database(), {"H2O", "NaOH", "HCl", "H2SO4", "CO2", "NH3", "Ca(OH)2"}, options);

@@ -44,7 +44,7 @@ void require_balances_close(const YAML::Node& report) {
   const YAML::Node closure = report["balance_closure"];
   REQUIRE(closure);
   CHECK(std::abs(number(closure["charge"])) < 1e-12);
-  REQUIRE(closure["mass"].size() >= 2);  // at least H+ and H2O
+  REQUIRE(closure["mass"].size() >= 2);  // at least H^+ and H2O
   for (const auto& balance : closure["mass"]) {
     INFO("mass balance " << balance.first.Scalar());
     CHECK(std::abs(number(balance.second)) < 1e-12);
@@ -91,7 +91,7 @@ TEST_CASE("HCl 0.01 mol/kg with Davies has pH 2.04", "[speciate]") {
   CHECK(number(report["pressure_Pa"]) == 101325.0);
   CHECK(number(report["water_mass_kg"]) == Approx(1.0).epsilon(1e-12));
   CHECK(report["activity_model"].as<std::string>() == "davies");
-  CHECK(number(report["solutes"]["Cl-"]["molality_mol_per_kg"]) == Approx(0.01).epsilon(1e-3));
+  CHECK(number(report["solutes"]["Cl^-"]["molality_mol_per_kg"]) == Approx(0.01).epsilon(1e-3));
   require_balances_close(report);
 }
 
@@ -162,7 +162,7 @@ TEST_CASE("the --table flag writes a readable table with the same pH", "[speciat
   INFO("stdout: " << run.out << "\nstderr: " << run.err);
   REQUIRE(run.exit_code == 0);
   CHECK_THAT(run.out, Catch::Contains(fmt::format("{:.4f}", number(report["pH"]))));
-  CHECK_THAT(run.out, Catch::Contains("Cl-"));
+  CHECK_THAT(run.out, Catch::Contains("Cl^-"));
   CHECK_THAT(run.out, Catch::Contains("ionic strength"));
   // A table is not YAML with a 'pH' field: the flag really switches the format.
   CHECK_THAT(run.out, !Catch::Contains("pH: "));
@@ -267,13 +267,13 @@ TEST_CASE("a solid allowed to form stays as much as saturation leaves", "[specia
   const YAML::Node gypsum = report["solids"]["gypsum"];
   REQUIRE(gypsum);
   CHECK(std::abs(number(gypsum["saturation_index"])) < 1e-8);
-  const double dissolved = number(report["solutes"]["Ca+2"]["molality_mol_per_kg"]) +
+  const double dissolved = number(report["solutes"]["Ca^2+"]["molality_mol_per_kg"]) +
                            number(report["solutes"]["CaSO4(aq)"]["molality_mol_per_kg"]);
   // Gypsum's solubility in water at 25 °C is about 15 mmol/kg (CRC Handbook, aqueous solubility of
   // inorganic compounds, 0.205 g CaSO4 per 100 g water ≈ 15.1 mmol/kg; from memory); Davies ±10 %.
   CHECK(dissolved == Approx(0.0151).epsilon(0.10));
   // What is not dissolved is solid: the ion pair and free ion in the solvent's own mass (which the
-  // dissolution itself enlarges by 2 H2O per formula), plus the traces of CaOH+.
+  // dissolution itself enlarges by 2 H2O per formula), plus the traces of CaOH^+.
   const double water = number(report["water_mass_kg"]);
   CHECK(number(gypsum["amount_mol"]) == Approx(0.1 - dissolved * water).epsilon(1e-6));
   require_balances_close(report);

@@ -323,7 +323,7 @@ TEST_CASE("the reader's errors point at the cause and say what is wrong") {
              Contains("test.yaml:6:33: error: the flow of HCl is negative"));
   CHECK_THAT(error_of(head + "    aqueous:\n      flows: {H2O: 1}\n"), Contains("needs a unit"));
   CHECK_THAT(error_of(head + "    aqueous:\n      flows: {H2O: 1 K}\n"), Contains("neither a molar flow"));
-  CHECK_THAT(error_of(head + "    aqueous:\n      flows: {Na2+: 1 mol/s}\n"), Contains("is charged"));
+  CHECK_THAT(error_of(head + "    aqueous:\n      flows: {Na2^+: 1 mol/s}\n"), Contains("is charged"));
   CHECK_THAT(error_of("  s:\n    temperature: 25\n    pressure: 1 atm\n    aqueous: {flows: {H2O: 1 mol/s}}\n"),
              Contains("test.yaml:3:18: error: temperature '25' needs a unit"));
   CHECK_THAT(error_of("  s:\n    temperature: 25 degC\n    pressure: -2 barg\n    aqueous: {flows: {H2O: 1 mol/s}}\n"),

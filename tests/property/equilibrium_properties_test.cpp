@@ -237,7 +237,7 @@ namespace {
 
 // Components that bring the cations of every solid in the data, with acids and bases to move pH.
 const std::vector<std::string> solid_pool{
-    "CaCl2", "Ca(OH)2", "CaCO3", "CaSO4:2H2O", "MgCl2", "MgSO4", "NaF",   "AlCl3", "Al2(SO4)3", "FeCl3",
+    "CaCl2", "Ca(OH)2", "CaCO3", "CaSO4.2H2O", "MgCl2", "MgSO4", "NaF",   "AlCl3", "Al2(SO4)3", "FeCl3",
     "ZnSO4", "CuSO4",   "NiCl2", "H2SO4",      "HCl",   "NaOH",  "Na2CO3", "CO2",  "H3PO4",     "NH3"};
 
 rc::Gen<Case> random_solid_case() { return random_case_from(solid_pool); }

@@ -14,9 +14,9 @@ namespace {
 using thermo::ActivityModelKind;
 constexpr double celsius = 273.15;
 
-double pkw(double temperature) { return -formation_log_k("OH-", temperature); }
+double pkw(double temperature) { return -formation_log_k("OH^-", temperature); }
 
-// pKa of the step HnA → H+ + Hn−1A: difference of the formation constants of the two species.
+// pKa of the step HnA → H^+ + Hn−1A: difference of the formation constants of the two species.
 double step_pka(const std::string& acid, const std::string& base) {
   return formation_log_k(acid) - (base.empty() ? 0.0 : formation_log_k(base));
 }
@@ -48,31 +48,31 @@ std::vector<ReferenceCase> build_cases() {
       {water, "pKw, 50 °C", iapws, 13.2644, 0.002, [] { return pkw(celsius + 50); }},
       {water, "pKw, 100 °C", iapws, 12.2518, 0.002, [] { return pkw(celsius + 100); }},
 
-      {constants, "pK of HSO4-", crc, 1.99, 0.03, [] { return step_pka("HSO4-", ""); }},
-      {constants, "pK1 of H3PO4", crc, 2.148, 0.03, [] { return step_pka("H3PO4(aq)", "H2PO4-"); }},
-      {constants, "pK2 of H3PO4", crc, 7.198, 0.03, [] { return step_pka("H2PO4-", "HPO4-2"); }},
-      {constants, "pK3 of H3PO4", crc, 12.35, 0.05, [] { return step_pka("HPO4-2", ""); }},
-      {constants, "pK1 of carbonic acid", pb, 6.352, 0.002, [] { return step_pka("CO2(aq)", "HCO3-"); }},
-      {constants, "pK2 of carbonic acid", pb, 10.329, 0.002, [] { return step_pka("HCO3-", ""); }},
+      {constants, "pK of HSO4^-", crc, 1.99, 0.03, [] { return step_pka("HSO4^-", ""); }},
+      {constants, "pK1 of H3PO4", crc, 2.148, 0.03, [] { return step_pka("H3PO4(aq)", "H2PO4^-"); }},
+      {constants, "pK2 of H3PO4", crc, 7.198, 0.03, [] { return step_pka("H2PO4^-", "HPO4^2-"); }},
+      {constants, "pK3 of H3PO4", crc, 12.35, 0.05, [] { return step_pka("HPO4^2-", ""); }},
+      {constants, "pK1 of carbonic acid", pb, 6.352, 0.002, [] { return step_pka("CO2(aq)", "HCO3^-"); }},
+      {constants, "pK2 of carbonic acid", pb, 10.329, 0.002, [] { return step_pka("HCO3^-", ""); }},
       {constants, "pK1 of carbonic acid, 0 °C", pb, 6.579, 0.003,
-       [] { return formation_log_k("CO2(aq)", celsius) - formation_log_k("HCO3-", celsius); }},
+       [] { return formation_log_k("CO2(aq)", celsius) - formation_log_k("HCO3^-", celsius); }},
       {constants, "pK1 of carbonic acid, 50 °C", pb, 6.286, 0.003,
-       [] { return formation_log_k("CO2(aq)", celsius + 50) - formation_log_k("HCO3-", celsius + 50); }},
+       [] { return formation_log_k("CO2(aq)", celsius + 50) - formation_log_k("HCO3^-", celsius + 50); }},
       {constants, "pKa of acetic acid", "Harned & Ehlers 1933, J. Am. Chem. Soc. 55, 652 (from memory)", 4.756, 0.005,
        [] { return step_pka("CH3COOH(aq)", ""); }},
       {constants, "pKa of formic acid", crc, 3.745, 0.02, [] { return step_pka("HCOOH(aq)", ""); }},
       {constants, "pKa of HF", crc, 3.17, 0.05, [] { return step_pka("HF(aq)", ""); }},
-      {constants, "pKa of NH4+", "Bates & Pinching 1949, J. Res. NBS 42, 419 (from memory)", 9.245, 0.005,
+      {constants, "pKa of NH4^+", "Bates & Pinching 1949, J. Res. NBS 42, 419 (from memory)", 9.245, 0.005,
        [] { return -formation_log_k("NH3(aq)"); }},
       {constants, "pKa of boric acid", "Manov, DeLollis & Acree 1944, J. Res. NBS 33, 287 (from memory)", 9.237, 0.01,
-       [] { return -formation_log_k("B(OH)4-"); }},
-      {constants, "pK1 of citric acid", crc, 3.13, 0.03, [] { return step_pka("C6H8O7(aq)", "H2C6H5O7-"); }},
-      {constants, "pK2 of citric acid", crc, 4.76, 0.03, [] { return step_pka("H2C6H5O7-", "HC6H5O7-2"); }},
-      {constants, "pK3 of citric acid", crc, 6.40, 0.03, [] { return step_pka("HC6H5O7-2", ""); }},
+       [] { return -formation_log_k("B(OH)4^-"); }},
+      {constants, "pK1 of citric acid", crc, 3.13, 0.03, [] { return step_pka("C6H8O7(aq)", "H2C6H5O7^-"); }},
+      {constants, "pK2 of citric acid", crc, 4.76, 0.03, [] { return step_pka("H2C6H5O7^-", "HC6H5O7^2-"); }},
+      {constants, "pK3 of citric acid", crc, 6.40, 0.03, [] { return step_pka("HC6H5O7^2-", ""); }},
       {constants, "pK1 of SO2(aq)", "Goldberg & Parker 1985, J. Res. NBS 90, 341 (from memory)", 1.86, 0.05,
-       [] { return step_pka("SO2(aq)", "HSO3-"); }},
+       [] { return step_pka("SO2(aq)", "HSO3^-"); }},
       {constants, "pK2 of SO2(aq)", "Goldberg & Parker 1985, J. Res. NBS 90, 341 (from memory)", 7.17, 0.05,
-       [] { return step_pka("HSO3-", ""); }},
+       [] { return step_pka("HSO3^-", ""); }},
       {constants, "pK1 of H2S", crc, 6.99, 0.03, [] { return step_pka("H2S(aq)", ""); }},
   };
 
@@ -87,9 +87,9 @@ std::vector<ReferenceCase> build_cases() {
     double gamma;
     double relative_tolerance;
   };
-  for (const Salt& s : {Salt{"HCl", "H+", 1, "Cl-", 1, 0.1, 0.796, 0.03}, Salt{"HCl", "H+", 1, "Cl-", 1, 0.5, 0.757, 0.05},
-                        Salt{"NaCl", "Na+", 1, "Cl-", 1, 0.1, 0.778, 0.03}, Salt{"NaCl", "Na+", 1, "Cl-", 1, 0.5, 0.681, 0.05},
-                        Salt{"CaCl2", "Ca+2", 1, "Cl-", 2, 0.1, 0.518, 0.05}}) {
+  for (const Salt& s : {Salt{"HCl", "H^+", 1, "Cl^-", 1, 0.1, 0.796, 0.03}, Salt{"HCl", "H^+", 1, "Cl^-", 1, 0.5, 0.757, 0.05},
+                        Salt{"NaCl", "Na^+", 1, "Cl^-", 1, 0.1, 0.778, 0.03}, Salt{"NaCl", "Na^+", 1, "Cl^-", 1, 0.5, 0.681, 0.05},
+                        Salt{"CaCl2", "Ca^2+", 1, "Cl^-", 2, 0.1, 0.518, 0.05}}) {
     for (const auto& [model, label] : {std::pair{ActivityModelKind::davies, "Davies"}, std::pair{ActivityModelKind::b_dot, "B-dot"}}) {
       const std::string quantity = fmt::format("γ± {} {} mol/kg, {}", s.salt, s.molality, label);
       double tolerance = s.relative_tolerance;
@@ -154,11 +154,11 @@ std::vector<ReferenceCase> build_cases() {
                    [=] { return henry_constant("NH3(g)", "NH3(aq)", 1e-4); }});
   cases.push_back({henry, "H2S at 1e-2 atm: m(H2S(aq)) / p", sander, 0.10, 0.010,
                    [=] { return henry_constant("H2S(g)", "H2S(aq)", 1e-2); }});
-  cases.push_back({henry, "HCl at 1e-8 atm: γ±² m(H+) m(Cl-) / p (Davies), mol² kg⁻² atm⁻¹ / 1e6",
+  cases.push_back({henry, "HCl at 1e-8 atm: γ±² m(H^+) m(Cl^-) / p (Davies), mol² kg⁻² atm⁻¹ / 1e6",
                    "Brimblecombe & Clegg 1988, J. Atmos. Chem. 7, 1 (from memory)", 2.04, 0.204, [] {
                      const ProbeResult r = solve_open_to({}, "HCl(g)", 1e-8 * 101325.0, ActivityModelKind::davies);
-                     const double gamma2 = std::pow(10.0, r.log10_gamma("H+") + r.log10_gamma("Cl-"));
-                     return gamma2 * r.molality("H+") * r.molality("Cl-") / 1e-8 / 1e6;
+                     const double gamma2 = std::pow(10.0, r.log10_gamma("H^+") + r.log10_gamma("Cl^-"));
+                     return gamma2 * r.molality("H^+") * r.molality("Cl^-") / 1e-8 / 1e6;
                    }});
   cases.push_back({henry, "water vapour pressure over pure water, kPa", "IAPWS-95 through python3-iapws", 3.1699,
                    0.001 * 3.1699, [] { return equilibrium_partial_pressure({}, "H2O(g)", ActivityModelKind::davies) / 1e3; }});
@@ -166,21 +166,21 @@ std::vector<ReferenceCase> build_cases() {
   // Enthalpies from the engine's state enthalpies (NBS data, dilute-solution model), kJ/mol.
   const std::string energy = "Reaction and solution enthalpies, 298.15 K, kJ/mol";
   const std::string nbs = "NBS tables, Wagman et al. 1982 (from memory)";
-  cases.push_back({energy, "H+ + OH- → H2O(l), from HCl and NaOH at 1e-4 mol/kg", nbs, -55.84, 0.3,
+  cases.push_back({energy, "H^+ + OH^- → H2O(l), from HCl and NaOH at 1e-4 mol/kg", nbs, -55.84, 0.3,
                    [] { return neutralisation_enthalpy(1e-4) / 1e3; }});
   // Dissolving into 1 kg of water at 1e-4 mol/kg: low enough that ion association is negligible,
   // high enough that water's own ions, which the acid or base pushes back, add under 0.06 kJ/mol.
-  cases.push_back({energy, "HCl(g) → H+ + Cl-, 1e-4 mol into 1 kg of water", nbs, -74.85, 0.3,
+  cases.push_back({energy, "HCl(g) → H^+ + Cl^-, 1e-4 mol into 1 kg of water", nbs, -74.85, 0.3,
                    [] { return dissolution_enthalpy("HCl", "HCl(g)", 1e-4) / 1e3; }});
-  cases.push_back({energy, "NaOH(s) → Na+ + OH-, 1e-4 mol into 1 kg of water", nbs, -44.51, 0.3,
+  cases.push_back({energy, "NaOH(s) → Na^+ + OH^-, 1e-4 mol into 1 kg of water", nbs, -44.51, 0.3,
                    [] { return dissolution_enthalpy("NaOH", "NaOH(s)", 1e-4) / 1e3; }});
-  // H2SO4 at any finite molality forms HSO4- (2 % at 1e-4 mol/kg, +0.4 kJ/mol): the published value
+  // H2SO4 at any finite molality forms HSO4^- (2 % at 1e-4 mol/kg, +0.4 kJ/mol): the published value
   // is the standard-state one, so the case sums the engine's standard-state species enthalpies.
-  cases.push_back({energy, "H2SO4(l) → 2 H+ + SO4-2, standard states", nbs, -95.28, 0.3,
+  cases.push_back({energy, "H2SO4(l) → 2 H^+ + SO4^2-, standard states", nbs, -95.28, 0.3,
                    [] { return standard_dissolution_enthalpy("H2SO4", "H2SO4(l)") / 1e3; }});
 
   cases.push_back({masses, "M(H2SO4)", pt, 98.0785, 1e-4, [] { return grams_per_mole("H2SO4"); }});
-  cases.push_back({masses, "M(CaSO4·2H2O)", pt, 172.1712, 1e-4, [] { return grams_per_mole("CaSO4:2H2O"); }});
+  cases.push_back({masses, "M(CaSO4·2H2O)", pt, 172.1712, 1e-4, [] { return grams_per_mole("CaSO4.2H2O"); }});
   return cases;
 }
 

@@ -38,7 +38,7 @@ TEST_CASE("Kw(T) matches IAPWS R11-07 through python3-iapws from 0 to 100 °C") 
     INFO("T = " << celsius << " °C");
     // Source: python3-iapws (IAPWS-95 density, IAPWS R11-07 pKw, IAPWS R8-97 permittivity).
     CHECK(thermo::water_density(t) == Approx(values[0]).epsilon(5e-5));
-    CHECK(-reference::formation_log_k("OH-", t) == Approx(values[1]).margin(1e-3));
+    CHECK(-reference::formation_log_k("OH^-", t) == Approx(values[1]).margin(1e-3));
     CHECK(thermo::water_relative_permittivity(t, values[0]) == Approx(values[2]).epsilon(1e-9));
   }
 }
@@ -50,7 +50,7 @@ TEST_CASE("molar masses of every data formula match python3-periodictable") {
   std::vector<const thermo::Species*> species;
   for (const thermo::Species& s : reference::bundled_database().species()) {
     // The Hill-order text of the parsed formula: names like "gypsum" are not formulas.
-    const std::string text = std::regex_replace(to_string(s.formula), std::regex("[+-][0-9]*$"), "");
+    const std::string text = std::regex_replace(to_string(s.formula), std::regex("\\^[0-9]*[+-]$"), "");
     script += fmt::format("print(periodictable.formula('{}').mass)\n", text);
     species.push_back(&s);
   }
@@ -61,7 +61,7 @@ TEST_CASE("molar masses of every data formula match python3-periodictable") {
     INFO(species[i]->name);
     CHECK(1e3 * thermo::molar_mass(species[i]->formula) == Approx(masses[i]).epsilon(1e-9));  // python3-periodictable
   }
-  CHECK(1e3 * thermo::molar_mass(thermo::parse_formula("CaSO4:2H2O")) == Approx(masses.back()).epsilon(1e-9));
+  CHECK(1e3 * thermo::molar_mass(thermo::parse_formula("CaSO4.2H2O")) == Approx(masses.back()).epsilon(1e-9));
 }
 
 TEST_CASE("liquid water's heat capacity and enthalpy match IAPWS-95 through python3-iapws from 0 to 100 °C") {

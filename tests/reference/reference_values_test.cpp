@@ -17,10 +17,10 @@ TEST_CASE("published reference values are met within their tolerance") {
   }
 }
 
-TEST_CASE("Henderson-Hasselbalch with activity: pH = pKa + log10(γ(A-)/γ(HA))") {
-  // Henderson–Hasselbalch (the project's list of closed forms): with the buffer far above [H+],
+TEST_CASE("Henderson-Hasselbalch with activity: pH = pKa + log10(γ(A^-)/γ(HA))") {
+  // Henderson–Hasselbalch (the project's list of closed forms): with the buffer far above [H^+],
   // pH − pKa equals log10 γ(A−) − log10 γ(HA) of the same solution.
   const ProbeResult r = solve_recipe({{"CH3COOH", 0.5}, {"NaOH", 0.25}}, protonflow::thermo::ActivityModelKind::davies);
   const double pka = formation_log_k("CH3COOH(aq)");
-  CHECK(r.speciation.ph == Approx(pka + r.log10_gamma("CH3COO-") - r.log10_gamma("CH3COOH(aq)")).margin(1e-3));
+  CHECK(r.speciation.ph == Approx(pka + r.log10_gamma("CH3COO^-") - r.log10_gamma("CH3COOH(aq)")).margin(1e-3));
 }

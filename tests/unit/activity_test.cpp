@@ -11,7 +11,7 @@ using namespace protonflow::thermo;
 
 namespace {
 
-// A mixed electrolyte: H+, Na+, Ca+2, Cl-, SO4-2, a neutral species.
+// A mixed electrolyte: H^+, Na^+, Ca^2+, Cl^-, SO4^2-, a neutral species.
 SoluteProperties mixture(bool equal_sizes) {
   SoluteProperties p;
   p.charge = {1, 1, 2, -1, -2, 0};

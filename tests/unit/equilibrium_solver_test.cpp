@@ -38,10 +38,10 @@ TEST_CASE("a component that is absent leaves its species at zero") {
   const ChemicalSystem system(database(), {"H2O", "HCl", "Na2SO4"});
   EquilibriumSolver solver(system);
   const Speciation out = solver.solve(298.15, 101325.0, std::vector<double>{kilogram_of_water, 0.01, 0.0});
-  CHECK(out.molality[system.index_of_solute("SO4-2")] == 0.0);
-  CHECK(out.molality[system.index_of_solute("HSO4-")] == 0.0);
-  CHECK(out.molality[system.index_of_solute("Na+")] == 0.0);
-  CHECK(out.molality[system.index_of_solute("Cl-")] == Approx(0.01).epsilon(1e-6));
+  CHECK(out.molality[system.index_of_solute("SO4^2-")] == 0.0);
+  CHECK(out.molality[system.index_of_solute("HSO4^-")] == 0.0);
+  CHECK(out.molality[system.index_of_solute("Na^+")] == 0.0);
+  CHECK(out.molality[system.index_of_solute("Cl^-")] == Approx(0.01).epsilon(1e-6));
 }
 
 TEST_CASE("impossible inputs are typed errors with a plain message") {

@@ -32,13 +32,13 @@ std::size_t solid_index(const ChemicalSystem& system, const std::string& name) {
 TEST_CASE("gypsum in pure water dissolves to its solubility and the rest stays solid") {
   SystemOptions options;
   options.allowed_solids = {"gypsum"};
-  const ChemicalSystem system(database(), {"H2O", "CaSO4:2H2O"}, options);
+  const ChemicalSystem system(database(), {"H2O", "CaSO4.2H2O"}, options);
   EquilibriumSolver solver(system);
   const Speciation s = solver.solve(298.15, 101325.0, std::vector<double>{kilogram_of_water, 0.1});
   const std::size_t gypsum = solid_index(system, "gypsum");
   CHECK(std::abs(s.saturation_index[gypsum]) < 1e-10);
-  const double dissolved = (s.molality[system.index_of_solute("Ca+2")] + s.molality[system.index_of_solute("CaSO4(aq)")] +
-                            s.molality[system.index_of_solute("CaOH+")]) * s.water_mass;
+  const double dissolved = (s.molality[system.index_of_solute("Ca^2+")] + s.molality[system.index_of_solute("CaSO4(aq)")] +
+                            s.molality[system.index_of_solute("CaOH^+")]) * s.water_mass;
   // About 15 mmol/kg at 25 °C (CRC Handbook aqueous solubilities, 0.205 g CaSO4/100 g water; from
   // memory); the Davies model within 10 %.
   CHECK(dissolved == Approx(0.0151).epsilon(0.10));
@@ -80,7 +80,7 @@ TEST_CASE("gibbsite dissolves again as aluminate at high pH") {
   const ChemicalSystem system(database(), {"H2O", "Al(OH)3", "NaOH"}, options);
   EquilibriumSolver solver(system);
   const std::size_t gibbsite = solid_index(system, "gibbsite");
-  const std::size_t aluminate = system.index_of_solute("Al(OH)4-");
+  const std::size_t aluminate = system.index_of_solute("Al(OH)4^-");
   double previous_solid = 1.0;
   for (const double base : {0.0, 1e-3, 1e-2, 3e-2, 0.1}) {
     const Speciation s = solver.solve(298.15, 101325.0, std::vector<double>{kilogram_of_water, 0.01, base});
@@ -89,7 +89,7 @@ TEST_CASE("gibbsite dissolves again as aluminate at high pH") {
     previous_solid = s.solid_amount[gibbsite];
     if (base == 0.0) CHECK(s.solid_amount[gibbsite] > 0.0099);  // nearly insoluble near neutral pH
     if (base == 0.1) {
-      // 0.1 mol/kg NaOH takes all 0.01 mol of Al into Al(OH)4- (amphoteric hydroxide).
+      // 0.1 mol/kg NaOH takes all 0.01 mol of Al into Al(OH)4^- (amphoteric hydroxide).
       CHECK(s.solid_amount[gibbsite] == 0.0);
       CHECK(s.saturation_index[gibbsite] < 0.0);
       CHECK(s.molality[aluminate] * s.water_mass == Approx(0.01).epsilon(1e-3));
@@ -101,7 +101,7 @@ TEST_CASE("a solution saturated with two solids at once") {
   // Calcium sulfate and calcium carbonate in excess: gypsum and calcite both stay, both saturated.
   SystemOptions options;
   options.allowed_solids = {"gypsum", "calcite"};
-  const ChemicalSystem system(database(), {"H2O", "CaSO4:2H2O", "CaCO3"}, options);
+  const ChemicalSystem system(database(), {"H2O", "CaSO4.2H2O", "CaCO3"}, options);
   EquilibriumSolver solver(system);
   const Speciation s = solver.solve(298.15, 101325.0, std::vector<double>{kilogram_of_water, 0.1, 0.05});
   for (const char* name : {"gypsum", "calcite"}) {

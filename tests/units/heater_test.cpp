@@ -213,7 +213,7 @@ TEST_CASE("heater: a pre-mixed HCl + NaOH feed is the neutralised NaCl solution 
   // python3-iapws; 0.1 mol/kg NaCl lowers c_p per kg of water by about 0.2 %, from memory).
   const double iapws = iapws_enthalpy_rise(298.15, 308.15) * 1e3 * (1.0 + 0.1 / mol_per_kg_water);
   CHECK(m.solution.results[duty] == Approx(iapws).epsilon(0.01));
-  CHECK(m.solution.results[duty] < iapws);  // the ions' heat capacity is negative (NBS 1982 Cp° of Na+ + Cl-)
+  CHECK(m.solution.results[duty] < iapws);  // the ions' heat capacity is negative (NBS 1982 Cp° of Na^+ + Cl^-)
   check_mass_balance(mixed, m.product, mixed_slate);
   CHECK(m.solution.warnings.empty());
 
@@ -289,16 +289,16 @@ TEST_CASE("heater: gypsum that precipitates goes to the gypsum row, written on t
   CHECK(warned(r.solution, "solids precipitate in the product: gypsum"));
 
   // Where the slate has a component of the solid's own formula, the solid row uses that one alone.
-  const host::Slate own{{"H2O", "CaSO4:2H2O"}, {"gypsum"}};
+  const host::Slate own{{"H2O", "CaSO4.2H2O"}, {"gypsum"}};
   host::StreamState saturated = stream(own, 298.15, atmosphere);
   flow(saturated, own, PFU_AQUEOUS_ROW, "H2O") = mol_per_kg_water;
-  flow(saturated, own, PFU_AQUEOUS_ROW, "CaSO4:2H2O") = 0.05;
+  flow(saturated, own, PFU_AQUEOUS_ROW, "CaSO4.2H2O") = 0.05;
   auto own_unit = create_heater({{"outlet_temperature", 313.15}}, own);
   const Run o = run(own_unit, saturated);
   check_mass_balance(saturated, o.product, own);
-  CHECK(flow(o.product, own, PFU_FIRST_SOLID_ROW, "CaSO4:2H2O") == Approx(o.solution.results[solid_flow]).epsilon(1e-14));
+  CHECK(flow(o.product, own, PFU_FIRST_SOLID_ROW, "CaSO4.2H2O") == Approx(o.solution.results[solid_flow]).epsilon(1e-14));
   CHECK(flow(o.product, own, PFU_FIRST_SOLID_ROW, "H2O") == 0.0);
-  CHECK(flow(o.product, own, PFU_AQUEOUS_ROW, "CaSO4:2H2O") > 0.0);
+  CHECK(flow(o.product, own, PFU_AQUEOUS_ROW, "CaSO4.2H2O") > 0.0);
 
   // A slate without a gypsum row keeps it in the aqueous row, and says so.
   const host::Slate no_row{{"H2O", "H2SO4", "Ca(OH)2"}, {}};

@@ -242,7 +242,7 @@ TEST_CASE("mixer: 0.1 mol/kg HCl meeting 0.1 mol/kg NaOH warms by the heat of ne
   const host::Slate slate{{"H2O", "HCl", "NaOH"}, {}};
   auto unit = create_mixer({}, slate);
   const Mix m = run(unit, {solution(slate, 298.15, {{"HCl", 0.1}}), solution(slate, 298.15, {{"NaOH", 0.1}})}, slate);
-  // H+ + OH- -> H2O(l): -55.84 kJ/mol (NBS tables, Wagman et al. 1982, REFERENCE-VALUES.md), so
+  // H^+ + OH^- -> H2O(l): -55.84 kJ/mol (NBS tables, Wagman et al. 1982, REFERENCE-VALUES.md), so
   // 0.1 mol/s releases 5.584 kW into 2 kg/s of dilute solution with c_p about 4.18 kJ/(kg K) (a
   // common value, from memory): ΔT ≈ 0.668 K, within 3 %.
   const double rise = 0.1 * 55.84e3 / (2.0 * 4.18e3);

@@ -26,7 +26,7 @@ host::Instance create_splitter(const std::vector<ParameterValue>& parameters, co
 }
 
 // Components in every phase, and one solid phase, so that every row of a stream is exercised.
-const host::Slate slate{{"H2O", "HCl", "NaOH", "CO2", "CaSO4:2H2O"}, {"gypsum"}};
+const host::Slate slate{{"H2O", "HCl", "NaOH", "CO2", "CaSO4.2H2O"}, {"gypsum"}};
 
 host::StreamState three_phase_feed() {
   host::StreamState feed = stream(slate, 318.15, 2.5e5);
@@ -36,7 +36,7 @@ host::StreamState three_phase_feed() {
   flow(feed, slate, PFU_AQUEOUS_ROW, "CO2") = 3.3e-4;
   flow(feed, slate, PFU_GAS_ROW, "CO2") = 0.0271828;
   flow(feed, slate, PFU_GAS_ROW, "H2O") = 0.00314159;
-  flow(feed, slate, PFU_FIRST_SOLID_ROW, "CaSO4:2H2O") = 0.0123;
+  flow(feed, slate, PFU_FIRST_SOLID_ROW, "CaSO4.2H2O") = 0.0123;
   return feed;
 }
 

@@ -19,9 +19,9 @@ ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string
   water_formation_enthalpy_ = database.species()[water].formation_enthalpy
                                   ? database.species()[water].formation_enthalpy->value
                                   : std::numeric_limits<double>::quiet_NaN();
-  const std::size_t proton = database.index_of("H+");
+  const std::size_t proton = database.index_of("H^+");
 
-  // Basis solutes: H+ first, then every basis species a component needs, in database order.
+  // Basis solutes: H^+ first, then every basis species a component needs, in database order.
   std::vector<BasisCombination> combinations;
   std::set<std::size_t> used{proton};
   for (const std::string& component : components_) {
@@ -90,9 +90,9 @@ ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string
     for (const Species& s : database.species())
       if (!s.is_basis && s.phase == Phase::aqueous && reachable(s)) add_solute(s);
   } else {
-    // OH- belongs to every aqueous system: water's own ionization is never optional.
+    // OH^- belongs to every aqueous system: water's own ionization is never optional.
     std::vector<std::string> wanted = options_.secondary_species;
-    if (std::find(wanted.begin(), wanted.end(), "OH-") == wanted.end()) wanted.insert(wanted.begin(), "OH-");
+    if (std::find(wanted.begin(), wanted.end(), "OH^-") == wanted.end()) wanted.insert(wanted.begin(), "OH^-");
     for (const std::string& name : wanted) {
       const Species& s = database.species()[database.index_of(name)];
       if (s.is_basis) continue;

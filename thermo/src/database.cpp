@@ -3,6 +3,7 @@
 #include <yaml-cpp/yaml.h>
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <cstdlib>
 #include <fmt/format.h>
@@ -10,6 +11,7 @@
 #include <unordered_map>
 
 #include "protonflow/thermo/errors.hpp"
+#include "protonflow/thermo/formula.hpp"
 
 namespace protonflow::thermo {
 
@@ -41,12 +43,13 @@ class DataFileReader {
   Species read_species(const YAML::Node& node) {
     if (!node.IsMap()) fail(node, "each species is a map of keys");
     check_keys(node, {"name", "formula", "phase", "basis", "ion_size_angstrom", "formation_enthalpy_kJ_mol",
-                      "entropy_J_mol_K", "heat_capacity_J_mol_K", "reaction", "log_k", "temperature_function",
+                      "entropy_J_mol_K", "heat_capacity_J_mol_K", "reaction", "log10_K_298K", "temperature_function",
                       "temperature_range_K", "note"});
     Species s;
     s.file = file_;
     s.line = node.Mark().line + 1;
     s.name = scalar(node, "name");
+    check_notation(node["name"], s.name);
     const std::string formula_text = node["formula"] ? scalar(node, "formula") : s.name;
     try {
       s.formula = parse_formula(formula_text);
@@ -76,14 +79,16 @@ class DataFileReader {
     if (node["temperature_range_K"]) read_range(node["temperature_range_K"], s);
 
     if (s.is_basis || s.phase == Phase::liquid) {
-      for (const char* key : {"reaction", "log_k", "temperature_function"})
+      for (const char* key : {"reaction", "log10_K_298K", "temperature_function"})
         if (node[key]) fail(node[key], fmt::format("a {} has no '{}'", s.is_basis ? "basis species" : "pure liquid", key));
       return s;
     }
     if (!node["reaction"] || !node["reaction"].IsMap() || node["reaction"].size() == 0)
       fail(node, fmt::format("'{}' is not a basis species, so it needs a 'reaction' from basis species", s.name));
     for (const auto& term : node["reaction"]) {
-      s.reaction.emplace_back(term.first.as<std::string>(), number(term.second));
+      const auto reactant = term.first.as<std::string>();
+      check_notation(term.first, reactant);
+      s.reaction.emplace_back(reactant, number(term.second));
     }
     read_log_k(node, s);
     return s;
@@ -93,22 +98,21 @@ class DataFileReader {
     const YAML::Node function = node["temperature_function"];
     if (!function || !function.IsMap() || function.size() != 1)
       fail(function ? function : node,
-           "'temperature_function' takes exactly one of: van_t_hoff, analytic, water_ionization, water_vapour");
+           "'temperature_function' takes exactly one of: van_t_hoff, five_term_log10_K, water_ionization, water_vapour");
     const auto key = function.begin()->first.as<std::string>();
     const YAML::Node body = function.begin()->second;
     using Form = TemperatureFunction::Form;
-    if (key == "analytic") {
-      check_keys(body, {"coefficients", "source", "note"});
-      const YAML::Node c = body["coefficients"];
-      if (!c || !c.IsSequence() || c.size() != 5) fail(body, "'coefficients' is a list of five numbers a1..a5");
-      s.log_k.form = Form::analytic;
-      for (std::size_t i = 0; i < 5; ++i) s.log_k.coefficients[i] = number(c[i]);
-      s.log_k_source = scalar(body, "source");
-      if (node["log_k"]) s.log_k.log_k_reference = sourced(node["log_k"], 1.0).value;
+    if (key == "five_term_log10_K") {
+      read_five_term(body, s);
+      if (node["log10_K_298K"]) s.log_k.log_k_reference = sourced(node["log10_K_298K"], 1.0).value;
       return;
     }
-    if (!node["log_k"]) fail(node, fmt::format("'{}' needs 'log_k' at 298.15 K", s.name));
-    const SourcedValue log_k = sourced(node["log_k"], 1.0);
+    if (key == "analytic")
+      fail(function.begin()->first,
+           "'analytic' with a list of coefficients is the older form: write 'five_term_log10_K' with the named "
+           "terms constant, linear_per_K, reciprocal_K, log10_T and reciprocal_square_K2 (docs/species-data.md)");
+    if (!node["log10_K_298K"]) fail(node, fmt::format("'{}' needs 'log10_K_298K', log10 K at 298.15 K", s.name));
+    const SourcedValue log_k = sourced(node["log10_K_298K"], 1.0);
     s.log_k.log_k_reference = log_k.value;
     s.log_k_source = log_k.source;
     if (key == "van_t_hoff") {
@@ -121,8 +125,34 @@ class DataFileReader {
     } else if (key == "water_vapour") {
       s.log_k.form = Form::water_vapour;
     } else {
-      fail(function, fmt::format("unknown temperature function '{}' (van_t_hoff, analytic, water_ionization, water_vapour)", key));
+      fail(function, fmt::format("unknown temperature function '{}' (van_t_hoff, five_term_log10_K, water_ionization, "
+                                 "water_vapour)", key));
     }
+  }
+
+  // log10 K = constant + linear_per_K T + reciprocal_K / T + log10_T log10(T) + reciprocal_square_K2 / T²,
+  // the five-term form of Plummer & Busenberg (1982) and Nordstrom et al. (1990); a term left out is 0.
+  void read_five_term(const YAML::Node& body, Species& s) {
+    static constexpr std::array<const char*, 5> terms{"constant", "linear_per_K", "reciprocal_K", "log10_T",
+                                                      "reciprocal_square_K2"};
+    check_keys(body, {"constant", "linear_per_K", "reciprocal_K", "log10_T", "reciprocal_square_K2", "source", "note"});
+    bool any_term = false;
+    for (std::size_t i = 0; i < terms.size(); ++i) {
+      any_term = any_term || body[terms[i]];
+      s.log_k.coefficients[i] = body[terms[i]] ? number(body[terms[i]]) : 0.0;
+    }
+    if (!any_term)
+      fail(body, "'five_term_log10_K' needs at least one of constant, linear_per_K, reciprocal_K, log10_T, "
+                 "reciprocal_square_K2");
+    s.log_k.form = TemperatureFunction::Form::five_term;
+    s.log_k_source = scalar(body, "source");
+  }
+
+  // A species name in the older notation ("Ca^2+", "CaSO4.2H2O") is refused with the name to write.
+  void check_notation(const YAML::Node& node, const std::string& name) {
+    if (const auto replacement = notation_replacement(name))
+      fail(node, fmt::format("'{}' is written in the older notation: write '{}' (charge after '^', hydrate water "
+                             "after '.'; docs/species-data.md)", name, *replacement));
   }
 
   void read_range(const YAML::Node& node, Species& s) {
@@ -165,8 +195,9 @@ class DataFileReader {
     if (!node.IsMap()) fail(node, "expected a map");
     for (const auto& entry : node) {
       const auto key = entry.first.as<std::string>();
-      if (std::find(allowed.begin(), allowed.end(), key) == allowed.end())
-        fail(entry.first, fmt::format("unknown key '{}'", key));
+      if (std::find(allowed.begin(), allowed.end(), key) != allowed.end()) continue;
+      if (key == "log_k") fail(entry.first, "unknown key 'log_k': write 'log10_K_298K' (log10 K at 298.15 K)");
+      fail(entry.first, fmt::format("unknown key '{}'", key));
     }
   }
 
@@ -238,8 +269,8 @@ Database load_database(const std::filesystem::path& directory) {
   Database database(std::move(all));
   for (const Species& s : database.species())
     if (!s.is_basis && s.phase != Phase::liquid) check_reaction_balance(database, s);
-  if (!database.find("H2O") || !database.find("H+") || !database.find("OH-"))
-    throw ThermoError(ErrorKind::bad_data, "the species data must define H2O, H+ and OH-");
+  if (!database.find("H2O") || !database.find("H^+") || !database.find("OH^-"))
+    throw ThermoError(ErrorKind::bad_data, "the species data must define H2O, H^+ and OH^-");
   return database;
 }
 

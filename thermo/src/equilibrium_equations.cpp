@@ -42,8 +42,8 @@ void EquilibriumSolver::Impl::phase_log_activity_gradient(const PhaseSpecies& p,
 
 // Rows, in order of the unknowns (docs/equilibrium.md):
 //   secondary solute s:  ln m_s + ln γ_s − Σ_b ν_sb (ln m_b + ln γ_b) − ν_sw ln a_w − ln K_s = 0         (mass action)
-//   basis solute b ≠ H+: W Σ_i ν_ib m_i + Σ_p ν_pb n_p + Σ_g ν_gb n_g − T_b − Σ_o ν_ob ξ_o = 0        (mass balance, mol)
-//   H+:                  Σ_i z_i m_i = 0                                                            (charge balance)
+//   basis solute b ≠ H^+: W Σ_i ν_ib m_i + Σ_p ν_pb n_p + Σ_g ν_gb n_g − T_b − Σ_o ν_ob ξ_o = 0        (mass balance, mol)
+//   H^+:                  Σ_i z_i m_i = 0                                                            (charge balance)
 //   ln W:                W (1/M_w + Σ_i ν_iw m_i) + Σ_p ν_pw n_p + Σ_g ν_gw n_g − T_w − Σ_o ν_ow ξ_o = 0  (water)
 //   allowed solid p:     ln Ω_p = ln K_p + Σ_b ν_pb ln a_b + ν_pw ln a_w = 0 if present, n_p = 0 if not (saturation)
 //   open gas o:          ln(p_o/p°) of the solution − ln(p_o,fixed/p°) = 0                           (Henry's law)
@@ -228,7 +228,7 @@ void EquilibriumSolver::Impl::set_totals(std::span<const double> amounts, std::s
                         fmt::format("the partial pressure of {} is {} Pa; it must be positive", open[o].name, open_gas_pressures[o]));
     open_log_pressure[o] = std::log(open_gas_pressures[o] / constants::standard_atmosphere);
   }
-  // H+ is balanced by charge; its tableau total is kept for the cold start.
+  // H^+ is balanced by charge; its tableau total is kept for the cold start.
   proton_total = basis_total[0];
   // A basis species with no total is absent, and so is every solute built from it, unless an open
   // gas supplies it (pure water open to air takes up CO2).

@@ -74,7 +74,7 @@ void EquilibriumSolver::Impl::guess_pass(double* x, double ln_water_activity) {
                        solid_scale[a]});
 
   // row[f]: phase f's stoichiometry in the current (swapped) basis. Each phase takes as pivot a basis
-  // species still in its swapped row (an open gas its own pivot where it can, H+ only as the last
+  // species still in its swapped row (an open gas its own pivot where it can, H^+ only as the last
   // resort); a phase whose swapped row has none left (anhydrite after gypsum: only water remains)
   // is left for Newton to place.
   std::vector<std::vector<double>> row(fixed.size());

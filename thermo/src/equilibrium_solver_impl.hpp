@@ -78,7 +78,7 @@ struct EquilibriumSolver::Impl {
   const ChemicalSystem* system;
   SolverOptions options;
   std::size_t n;      // solutes
-  std::size_t nb;     // basis solutes (index 0 is H+)
+  std::size_t nb;     // basis solutes (index 0 is H^+)
   // Unknowns: [0, n) ln m_i; n: ln W; then one per allowed solid (n_p / s_p), one per open gas
   // (uptake / ξ_s), one per gas of a closed phase (n_g / N_s) and the phase total (N / N_s).
   std::size_t solid_offset, open_offset, phase_offset, phase_total_index, size;
@@ -93,7 +93,7 @@ struct EquilibriumSolver::Impl {
   std::size_t maximum_rounds = 0;
   std::vector<double> basis_total;  // mol
   double water_total = 0.0;         // mol H2O as a component
-  double proton_total = 0.0;        // mol H+ from the tableau (for the cold start only)
+  double proton_total = 0.0;        // mol H^+ from the tableau (for the cold start only)
   std::vector<double> solid_scale;  // s_p, mol: the most of each allowed solid the totals allow
   double uptake_scale = 1.0;        // ξ_s, mol: 1 mol per kg of the water present
   double phase_scale = 1.0;         // N_s, mol: all the moles the system holds

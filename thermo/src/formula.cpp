@@ -19,21 +19,32 @@ class FormulaReader {
   Formula read() {
     if (text_.empty()) fail("the formula is empty");
     Formula formula;
-    read_part(formula.elements);
-    while (accept_hydrate_separator()) read_part(formula.elements);
+    read_part(formula.elements, 1.0);
+    while (accept_hydrate_separator()) read_part(formula.elements, read_hydrate_multiplier());
     formula.charge = read_charge();
     if (!at_end()) fail(fmt::format("unexpected '{}'", text_[position_]));
     return formula;
   }
 
  private:
-  // part := count? group+ ; a leading count multiplies the whole part (the 2 of ":2H2O").
-  void read_part(std::map<std::string, double>& elements) {
-    const double multiplier = at_digit() ? read_count() : 1.0;
+  // part := group+ ; the hydrate multiplier (the 2 of ".2H2O") multiplies the whole part.
+  void read_part(std::map<std::string, double>& elements, double multiplier) {
     std::map<std::string, double> part;
     if (!at_group_start()) fail("expected an element symbol or '('");
     while (at_group_start()) read_group(part);
     for (const auto& [symbol, count] : part) elements[symbol] += multiplier * count;
+  }
+
+  // The count before a hydrate's water: whole ("2H2O") or decimal ("0.5H2O"); none means 1.
+  double read_hydrate_multiplier() {
+    if (!at_digit()) return 1.0;
+    const std::size_t start = position_;
+    while (at_digit()) ++position_;
+    if (peek() == '.' && position_ + 1 < text_.size() && std::isdigit(static_cast<unsigned char>(text_[position_ + 1]))) {
+      ++position_;
+      while (at_digit()) ++position_;
+    }
+    return to_count(start);
   }
 
   void read_group(std::map<std::string, double>& elements) {
@@ -62,9 +73,14 @@ class FormulaReader {
     return symbol;
   }
 
+  // Atom counts are whole numbers: a '.' after them starts a hydrate part ("CaSO4.2H2O").
   double read_count() {
     const std::size_t start = position_;
-    while (at_digit() || peek() == '.') ++position_;
+    while (at_digit()) ++position_;
+    return to_count(start);
+  }
+
+  double to_count(std::size_t start) {
     const std::string digits(text_.substr(start, position_ - start));
     std::size_t used = 0;
     double value = 0.0;
@@ -80,11 +96,11 @@ class FormulaReader {
     return value;
   }
 
-  // charge := ('+' | '-') digits? at the very end: "Na+", "SO4-2".
+  // charge := '^' digits? ('+' | '-') at the very end: "Na^+", "SO4^2-"; the 1 is never written.
   int read_charge() {
-    if (peek() != '+' && peek() != '-') return 0;
-    const int sign = text_[position_++] == '+' ? 1 : -1;
-    if (at_end()) return sign;
+    if (peek() == '+' || peek() == '-') fail_old_notation("a charge is written after '^'");
+    if (peek() != '^') return 0;
+    ++position_;
     const std::size_t start = position_;
     int magnitude = 0;
     // No ion carries more than a handful of charges; stop long before int overflows.
@@ -96,23 +112,31 @@ class FormulaReader {
         fail(fmt::format("a charge above {} is not a charge", largest_charge));
       }
     }
-    if (position_ == start || magnitude == 0) {
+    const bool has_number = position_ > start;
+    if ((has_number && magnitude < 2) || (peek() != '+' && peek() != '-')) {
       position_ = start;
-      fail("a charge is written as +, -, +2, -3 at the end of the formula");
+      fail("a charge is written '^+', '^-', '^2+', '^3-' at the end of the formula (no 1, no 0)");
     }
-    return sign * magnitude;
+    const int sign = text_[position_++] == '+' ? 1 : -1;
+    return sign * (has_number ? magnitude : 1);
   }
 
   bool accept_hydrate_separator() {
-    if (peek() == ':') {
+    if (peek() == ':') fail_old_notation("a hydrate is written with '.'");
+    if (peek() == '.') {
       ++position_;
       return true;
     }
-    if (text_.substr(position_).starts_with("\u00b7")) {  // middle dot, as in CaSO4·2H2O
+    if (text_.substr(position_).starts_with("\u00b7")) {  // IUPAC middle dot, as in CaSO4·2H2O
       position_ += 2;
       return true;
     }
     return false;
+  }
+
+  [[noreturn]] void fail_old_notation(const std::string& what) const {
+    const auto replacement = notation_replacement(text_);
+    fail(replacement ? fmt::format("{}: write '{}'", what, *replacement) : what);
   }
 
   char peek() const { return at_end() ? '\0' : text_[position_]; }
@@ -132,6 +156,27 @@ class FormulaReader {
 }  // namespace
 
 Formula parse_formula(std::string_view text) { return FormulaReader(text).read(); }
+
+std::optional<std::string> notation_replacement(std::string_view name) {
+  std::string text(name);
+  bool changed = false;
+  for (std::size_t colon = text.find(':'); colon != std::string::npos; colon = text.find(':', colon + 1)) {
+    text[colon] = '.';
+    changed = true;
+  }
+  // A trailing '+', '-', '+2', '-3' without '^' before it: move the sign behind the number.
+  std::size_t end = text.size();
+  while (end > 0 && std::isdigit(static_cast<unsigned char>(text[end - 1]))) --end;
+  if (end > 1 && (text[end - 1] == '+' || text[end - 1] == '-') && text.find('^') == std::string::npos) {
+    const char sign = text[end - 1];
+    std::string digits = text.substr(end);
+    if (digits == "1") digits.clear();
+    text = text.substr(0, end - 1) + "^" + digits + sign;
+    changed = true;
+  }
+  if (!changed) return std::nullopt;
+  return text;
+}
 
 double molar_mass(const Formula& formula) {
   double grams = 0.0;
@@ -156,8 +201,9 @@ std::string to_string(const Formula& formula) {
     append(symbol, count);
   }
   if (formula.charge != 0) {
-    text += formula.charge > 0 ? '+' : '-';
+    text += '^';
     if (formula.charge != 1 && formula.charge != -1) text += fmt::format("{}", std::abs(formula.charge));
+    text += formula.charge > 0 ? '+' : '-';
   }
   return text;
 }

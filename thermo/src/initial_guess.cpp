@@ -61,7 +61,7 @@ void minimise_ideal_dual(const GuessProblem& p, std::span<double> x, int iterati
   if (k == 0) return;
   for (std::size_t b : variables)
     if (!std::isfinite(x[b])) x[b] = std::log(1e-7);
-  // Start where every molality is at most e^10: lower the variables other than H+ together until
+  // Start where every molality is at most e^10: lower the variables other than H^+ together until
   // the most concentrated solute comes down there (no solute has a negative coefficient on them).
   double shift = 0.0;
   for (std::size_t i = 0; i < p.solute_count; ++i) {

@@ -167,7 +167,7 @@ void EquilibriumSolver::Impl::predict_precipitation(std::size_t a) {
       saturation, 0.0, high, ln_omega, at_high, boost::math::tools::eps_tolerance<double>(30), iterations);
   const double xi = 0.5 * (low_end + high_end);
   // Scale the basis species, and every solute built from them, by the fraction left in solution.
-  shift_by_basis[0] = 0.0;  // H+ is left to Newton
+  shift_by_basis[0] = 0.0;  // H^+ is left to Newton
   for (std::size_t b = 1; b < nb; ++b)
     shift_by_basis[b] = p.stoichiometry[b] > 0.0 ? std::log1p(-p.stoichiometry[b] * xi / guess_totals[b]) : 0.0;
   for (std::size_t i = 0; i < n; ++i) {

@@ -27,8 +27,8 @@ StandardEnthalpy standard_enthalpy(const Database& database, const Species& s) {
     from_reaction += k * basis.at_reference;
     heat_capacity_from_reaction += k * basis.heat_capacity;
   }
-  if (s.log_k.form == TemperatureFunction::Form::analytic) {
-    // ΔrCp = dΔrH/dT of the analytic form, by a central difference.
+  if (s.log_k.form == TemperatureFunction::Form::five_term) {
+    // ΔrCp = dΔrH/dT of the five-term form, by a central difference.
     const double h = 0.01;
     heat_capacity_from_reaction += (reaction_enthalpy(s.log_k, reference + h, constants::standard_atmosphere) -
                                     reaction_enthalpy(s.log_k, reference - h, constants::standard_atmosphere)) /

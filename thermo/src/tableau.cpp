@@ -13,7 +13,7 @@ namespace {
 
 bool is_hydrogen_or_oxygen(const std::string& element) { return element == "H" || element == "O"; }
 
-// Element counts without H and O: those two are free, balanced by H2O and H+.
+// Element counts without H and O: those two are free, balanced by H2O and H^+.
 std::map<std::string, double> heavy_elements(const Formula& formula) {
   std::map<std::string, double> heavy;
   for (const auto& [element, count] : formula.elements)
@@ -37,7 +37,7 @@ class CoverSearch {
     const auto& heavy = target_heavy_;
     for (std::size_t i = 0; i < database.species().size(); ++i) {
       const Species& s = database.species()[i];
-      if (!s.is_basis || s.phase != Phase::aqueous || s.name == "H+") continue;
+      if (!s.is_basis || s.phase != Phase::aqueous || s.name == "H^+") continue;
       const auto own = heavy_elements(s.formula);
       if (own.empty()) continue;
       bool fits = true;
@@ -77,7 +77,7 @@ class CoverSearch {
     }
   }
 
-  // H2O from the oxygen count, H+ from the hydrogen count; the charge must then be right (no redox).
+  // H2O from the oxygen count, H^+ from the hydrogen count; the charge must then be right (no redox).
   void consider(const BasisCombination& chosen) {
     double oxygen = 0.0, hydrogen = 0.0, charge = 0.0;
     for (const auto& [index, k] : chosen) {
@@ -91,7 +91,7 @@ class CoverSearch {
     if (std::abs(charge + protons - target_.charge) > 1e-9) return;
     BasisCombination full = chosen;
     if (std::abs(water) > 1e-12) full.emplace_back(database_.index_of("H2O"), water);
-    if (std::abs(protons) > 1e-12) full.emplace_back(database_.index_of("H+"), protons);
+    if (std::abs(protons) > 1e-12) full.emplace_back(database_.index_of("H^+"), protons);
     if (best_.empty() || chosen.size() < best_size_) {
       best_ = {full};
       best_size_ = chosen.size();

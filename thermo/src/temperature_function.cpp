@@ -14,7 +14,7 @@ double log_k(const TemperatureFunction& function, double temperature, double /*p
       // van 't Hoff with constant ΔrH° (e.g. Stumm & Morgan 1996, Aquatic Chemistry, §2.9).
       return function.log_k_reference - function.reaction_enthalpy / (constants::gas_constant * constants::ln10) *
                                             (1.0 / temperature - 1.0 / constants::reference_temperature);
-    case Form::analytic: {
+    case Form::five_term: {
       const auto& a = function.coefficients;
       const double t = temperature;
       return a[0] + a[1] * t + a[2] / t + a[3] * std::log10(t) + a[4] / (t * t);
@@ -33,7 +33,7 @@ double reaction_enthalpy(const TemperatureFunction& function, double temperature
   switch (function.form) {
     case Form::van_t_hoff:
       return function.reaction_enthalpy;
-    case Form::analytic: {
+    case Form::five_term: {
       const auto& a = function.coefficients;
       const double t = temperature;
       return rt2 * (a[1] - a[2] / (t * t) + a[3] / (t * constants::ln10) - 2.0 * a[4] / (t * t * t));

@@ -45,7 +45,7 @@ class Mixer {
   static constexpr std::array results{
       unit::result("duty", "W", "heat added, H_out - sum of the inlets' H as computed (negative: removed)"),
       unit::result("outlet_temperature", "K", "product temperature"),
-      unit::result("outlet_ph", "1", "pH of the product, -log10 a(H+); NaN for no flow"),
+      unit::result("outlet_ph", "1", "pH of the product, -log10 a(H^+); NaN for no flow"),
       unit::result("gas_flow", "mol/s", "gas phase in the product at equilibrium, all gases and vapour"),
       unit::result("solid_flow", "mol/s", "solids in the product at equilibrium, all solid phases")};
 

@@ -103,7 +103,7 @@ typedef struct pfu_slate {
   pfu_header header;
   uint32_t component_count;
   uint32_t solid_count;
-  const char* const* components; /* formula components, e.g. "H2O", "H2SO4", "CaSO4:2H2O" */
+  const char* const* components; /* formula components, e.g. "H2O", "H2SO4", "CaSO4.2H2O" */
   const char* const* solids;     /* solid phases by database name, e.g. "gypsum"; row 2 + i */
 } pfu_slate;
 

@@ -26,7 +26,7 @@ struct SystemOptions {
   bool gas_phase = false;
 };
 
-// A solute of the system. Index 0 is H+; basis solutes come first, then secondary ones.
+// A solute of the system. Index 0 is H^+; basis solutes come first, then secondary ones.
 struct Solute {
   std::string name;
   int charge = 0;

@@ -19,7 +19,7 @@ enum SpeciationWarning : unsigned {
 struct Speciation {
   double temperature = 0.0;         // K
   double pressure = 0.0;            // Pa
-  double ph = 0.0;                  // −log10 a(H+)
+  double ph = 0.0;                  // −log10 a(H^+)
   double ionic_strength = 0.0;      // mol/kg
   double water_mass = 0.0;          // kg of solvent water
   double water_activity = 0.0;

@@ -40,7 +40,7 @@ class DataError : public ThermoError {
 };
 
 struct EquationResidual {
-  std::string equation;  // e.g. "mass balance SO4-2", "charge balance"
+  std::string equation;  // e.g. "mass balance SO4^2-", "charge balance"
   double scaled_residual;
 };
 

@@ -20,7 +20,7 @@ struct SourcedValue {
 };
 
 struct Species {
-  std::string name;  // unique, e.g. "HSO4-", "CO2(aq)"
+  std::string name;  // unique, e.g. "HSO4^-", "CO2(aq)"
   Formula formula;
   Phase phase = Phase::aqueous;
   bool is_basis = false;  // aqueous basis species and the solvent only
