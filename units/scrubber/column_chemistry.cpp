@@ -105,19 +105,21 @@ ColumnChemistry make_column_chemistry(std::string_view unit_type, const thermo::
     chemistry.liquid_system = std::make_unique<thermo::ChemicalSystem>(database, components, liquid_options);
     thermo::SystemOptions gas_options = liquid_options;
     gas_options.gas_phase = true;
-    const thermo::ChemicalSystem with_gases(database, components, gas_options);
+    chemistry.flash_system = std::make_unique<thermo::ChemicalSystem>(database, components, gas_options);
+    const thermo::ChemicalSystem& with_gases = *chemistry.flash_system;
     const thermo::ChemicalSystem& liquid = *chemistry.liquid_system;
     for (std::size_t i = 0; i < liquid.basis_count(); ++i)
       if (with_gases.solutes()[i].name != liquid.solutes()[i].name)
         throw unit::UnitError(PFU_INTERNAL_ERROR, prefix + "the column's two systems disagree on their basis");
 
     for (std::size_t k = 0; k < components.size(); ++k) {
-      for (const thermo::PhaseSpecies& gas : with_gases.phase_gases()) {
+      for (std::size_t g = 0; g < with_gases.phase_gases().size(); ++g) {
+        const thermo::PhaseSpecies& gas = with_gases.phase_gases()[g];
         if (!same_composition(liquid, k, gas)) continue;
         if (std::isnan(gas.reference_enthalpy))
           refuse("gas " + gas.name + " has no formation enthalpy in the species data; the column's energy balance needs it");
         chemistry.gas_of_slate_component[chosen[k]] = chemistry.gases.size();
-        chemistry.gases.push_back({components[k], k, gas});
+        chemistry.gases.push_back({components[k], k, g, gas});
         break;
       }
     }

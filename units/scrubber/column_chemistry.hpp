@@ -26,6 +26,7 @@ namespace protonflow::scrubber {
 
 struct ColumnChemistry {
   std::unique_ptr<thermo::ChemicalSystem> liquid_system;  // the column's components; no gas phase, no solids
+  std::unique_ptr<thermo::ChemicalSystem> flash_system;   // the same with a gas phase, for stage flashes
   std::vector<ColumnGas> gases;                            // one per volatile column component
   std::vector<std::size_t> slate_component;                // per column component: its slate index
   std::vector<std::size_t> gas_of_slate_component;         // per slate component: its gas, or no_component

@@ -16,6 +16,12 @@ namespace {
 // throughput by about one kelvin. A scale only: it changes no answer.
 constexpr double energy_scale_heat_capacity = 75.3;
 
+// Every gas leaves a stage with at least this mole fraction (1e-24 ppmv): far below anything an
+// analyser or a permit knows, it keeps the trace of a gas that a caustic column absorbs stage after
+// stage at a definite scale instead of one that can sink without bound (the equations of a gas at
+// trace level are otherwise homogeneous in its amounts).
+constexpr double trace_mole_fraction = 1e-30;
+
 // Difference-quotient steps: the square root of the double epsilon on ln(flow) (a relative step
 // of 1.5e-8) and on T relative to its size (common practice, Dennis & Schnabel 1983, §5.4).
 constexpr double log_step = 1.4901161193847656e-08;
@@ -159,7 +165,7 @@ void ColumnEquations::residual_block(std::size_t j, const StageEquilibrium& abov
     }
     const double y_in = gas_in[k] / gas_in_total;
     const double e = efficiency_[k];
-    const double target = (1.0 - e) * y_in + e * here.partial_pressure[k] / pressure_;
+    const double target = (1.0 - e) * y_in + e * here.partial_pressure[k] / pressure_ + trace_mole_fraction;
     f[slot++] = std::log(gas_out[k]) - std::log(gas_out_total * std::max(target, 1e-300));
   }
   const double gas_in_enthalpy = gas_enthalpy_flow(gas_in, bottom ? feeds_.gas_temperature : t_[j + 1]);
@@ -168,6 +174,18 @@ void ColumnEquations::residual_block(std::size_t j, const StageEquilibrium& abov
 }
 
 void ColumnEquations::residual(const double* x, double* f) {
+  // A Newton step can land where no stage has an answer: refuse it here, before the engine sees
+  // it (flows beyond a thousand times the throughput, a temperature outside the data).
+  const double largest_log_flow = std::log(1e3 * flow_scale_);
+  for (std::size_t i = 0; i < size(); ++i) {
+    const bool temperature = i % block_ == temperature_slot();
+    const bool outside = temperature ? !(x[i] >= model_.minimum_temperature() && x[i] <= model_.maximum_temperature())
+                                     : !(x[i] <= largest_log_flow && x[i] > -700.0);
+    if (outside)
+      throw std::domain_error("a Newton step left the range where stages have an answer (stage " +
+                              std::to_string(i / block_ + 1) + ", unknown " + std::to_string(i % block_ + 1) + " = " +
+                              std::to_string(x[i]) + ")");
+  }
   for (std::size_t j = 0; j < stages_; ++j) read_stage(x, j);
   for (std::size_t j = 0; j < stages_; ++j) evaluate_stage(j, equilibrium_[j]);
   for (std::size_t j = 0; j < stages_; ++j) residual_block(j, above(j), equilibrium_[j], f + j * block_);

@@ -8,6 +8,7 @@
 // "all absorbed" and "none absorbed" settles instead of oscillating.
 #include <algorithm>
 #include <cmath>
+#include <exception>
 #include <vector>
 
 #include "column_equations.hpp"
@@ -18,6 +19,7 @@ namespace {
 
 constexpr int sweeps = 8;
 constexpr double relaxation = 0.5;  // fraction of the step in ln(flow) taken per sweep
+constexpr double largest_log_step = 2.0;  // and at most a factor e² per sweep
 // Molar heat capacities for the temperature step only, J/(mol K): liquid water 75.3 and water
 // vapour 33.6 near 25 °C (NIST-JANAF, Chase 1998; from memory). They set the step, not the answer.
 constexpr double liquid_heat_capacity = 75.3;
@@ -67,14 +69,42 @@ ColumnProfile ColumnEquations::start_profile() {
     return sum;
   };
   std::vector<double> a(n), b(n), c(n), d(n), stripping(n), energy(n);
+  std::vector<double> totals(liquid_count_), liquid(liquid_count_), gas(gas_count_);
   for (int sweep = 0; sweep < sweeps; ++sweep) {
-    for (std::size_t j = 0; j < n; ++j) evaluate_stage(j, equilibrium_[j]);
+    if (model_.has_flash()) {
+      // Stage flashes, Gauss–Seidel, down the column and up again by turns: each stage takes
+      // what reaches it (the liquid from above, the gas from below) to equilibrium at its
+      // temperature. An inert gas passes and lowers the pressure the others share.
+      for (std::size_t step = 0; step < n; ++step) {
+        const std::size_t j = sweep % 2 == 0 ? step : n - 1 - step;
+        const double* liquid_in = j == 0 ? feeds_.liquid.data() : l_.data() + (j - 1) * liquid_count_;
+        const double* gas_in = j + 1 == n ? feeds_.gas.data() : v_.data() + (j + 1) * gas_count_;
+        std::fill(totals.begin(), totals.end(), 0.0);
+        for (const std::size_t comp : liquid_unknowns_) totals[comp] = liquid_in[comp];
+        double inert = 0.0, all = 0.0;
+        for (const std::size_t k : gas_unknowns_) {
+          all += gas_in[k];
+          if (model_.gas_component(k) == StageModel::no_component) inert += gas_in[k];
+          else totals[model_.gas_component(k)] += gas_in[k];
+        }
+        try {
+          model_.flash(j, t_[j], pressure_ * (1.0 - inert / all), totals, liquid, gas);
+        } catch (const std::exception&) {
+          continue;  // this stage keeps its previous flows; Newton starts from them
+        }
+        for (const std::size_t comp : liquid_unknowns_) l_[j * liquid_count_ + comp] = std::max(liquid[comp], floor);
+        for (const std::size_t k : gas_unknowns_)
+          v_[j * gas_count_ + k] = std::max(model_.gas_component(k) == StageModel::no_component ? gas_in[k] : gas[k], floor);
+      }
+    }
+    if (!model_.has_flash())
+      for (std::size_t j = 0; j < n; ++j) evaluate_stage(j, equilibrium_[j]);
     // Flows: one tridiagonal system per dissolving gas, with the stage's stripping factor
     // S_j = E m_j V_j / L_j, m_j = (p*_j / P) / x_j:  −l_(j−1) + (1 + S_j) l_j − S_(j+1) l_(j+1) = 0,
     // the liquor feed above the top stage and the gas feed below the bottom one.
     for (const std::size_t k : gas_unknowns_) {
       const std::size_t comp = model_.gas_component(k);
-      if (comp == StageModel::no_component) continue;  // an inert gas passes unchanged
+      if (comp == StageModel::no_component || model_.has_flash()) continue;  // an inert gas passes unchanged
       for (std::size_t j = 0; j < n; ++j) {
         const double liquid_total = total(l_.data() + j * liquid_count_, liquid_count_);
         const double gas_total = total(v_.data() + j * gas_count_, gas_count_);
@@ -91,17 +121,24 @@ ColumnProfile ColumnEquations::start_profile() {
       d[0] += feeds_.liquid[comp];
       d[n - 1] += feeds_.gas[k];
       solve_tridiagonal(a, b, c, d);
+      // A linearised stage can strip what the next one absorbs, and circulate more of a gas
+      // than the column is fed: no flow of the start exceeds the component's feeds.
+      const double fed = feeds_.liquid[comp] + feeds_.gas[k];
       for (std::size_t j = 0; j < n; ++j) {
         double& liquid = l_[j * liquid_count_ + comp];
         double& gas = v_[j * gas_count_ + k];
-        const double new_liquid = std::max(d[j], floor);
-        const double new_gas = std::max(stripping[j] * d[j], floor);
-        liquid = std::exp((1.0 - relaxation) * std::log(liquid) + relaxation * std::log(new_liquid));
-        gas = std::exp((1.0 - relaxation) * std::log(gas) + relaxation * std::log(new_gas));
+        const double new_liquid = std::clamp(d[j], floor, fed);
+        const double new_gas = std::clamp(stripping[j] * d[j], floor, fed);
+        liquid *= std::exp(std::clamp(relaxation * std::log(new_liquid / liquid), -largest_log_step, largest_log_step));
+        gas *= std::exp(std::clamp(relaxation * std::log(new_gas / gas), -largest_log_step, largest_log_step));
       }
     }
     // Temperatures: each stage's energy imbalance at the new flows over its flows' heat capacity.
-    for (std::size_t j = 0; j < n; ++j) evaluate_stage(j, equilibrium_[j]);
+    try {
+      for (std::size_t j = 0; j < n; ++j) evaluate_stage(j, equilibrium_[j]);
+    } catch (const std::exception&) {
+      continue;  // temperatures stay; Newton starts from them
+    }
     for (std::size_t j = 0; j < n; ++j) {
       const bool bottom = j + 1 == n;
       const double* gas_in = bottom ? feeds_.gas.data() : v_.data() + (j + 1) * gas_count_;

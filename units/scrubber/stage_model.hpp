@@ -34,6 +34,14 @@ class StageModel {
                         StageEquilibrium& out) = 0;
   // Molar enthalpy of gas k, J/mol, ideal gas at temperature (K).
   virtual double gas_enthalpy(std::size_t gas, double temperature) const = 0;
+  // Optional, for the column's starting profile: the isothermal equilibrium stage. totals are
+  // mol/s per liquid component, each dissolving gas counted in its component; the stage splits
+  // them into liquid and gas flows at temperature (K) and pressure (Pa), the pressure the
+  // dissolving gases share. A model without it says so by has_flash(); the start then uses
+  // absorption-factor sweeps alone.
+  virtual bool has_flash() const { return false; }
+  virtual void flash(std::size_t /*stage*/, double /*temperature*/, double /*pressure*/, std::span<const double> /*totals*/,
+                     std::span<double> /*liquid*/, std::span<double> /*gas*/) {}
   // The temperatures (K) between which the model has an answer.
   virtual double minimum_temperature() const = 0;
   virtual double maximum_temperature() const = 0;
