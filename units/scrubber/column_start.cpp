@@ -57,9 +57,8 @@ ColumnProfile ColumnEquations::start_profile() {
       l_[j * liquid_count_ + c] = std::max(feeds_.liquid[c] + (k == StageModel::no_component ? 0.0 : 0.5 * feeds_.gas[k]), floor);
     }
     for (const std::size_t k : gas_unknowns_) {
-      const std::size_t c = model_.gas_component(k);
-      const double from_liquid = c == StageModel::no_component ? 0.0 : 0.5 * feeds_.liquid[c];
-      v_[j * gas_count_ + k] = std::max(model_.gas_component(k) == StageModel::no_component ? feeds_.gas[k] : 0.5 * feeds_.gas[k] + from_liquid, floor);
+      const bool inert = model_.gas_component(k) == StageModel::no_component;
+      v_[j * gas_count_ + k] = std::max(inert ? feeds_.gas[k] : 0.5 * feeds_.gas[k], floor);
     }
     t_[j] = std::clamp(feeds_.liquid_temperature, t_low, t_high);
   }
