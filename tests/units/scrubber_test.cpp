@@ -41,6 +41,13 @@ Column run(host::Instance& unit, const host::StreamState& gas, const host::Strea
   return c;
 }
 
+const host::SeriesValues& series(const host::Instance& unit, const Column& c, const std::string& name) {
+  const auto& declared = unit.unit_class().series;
+  for (std::size_t i = 0; i < declared.size(); ++i)
+    if (declared[i].name == name) return c.solution.series[i];
+  throw std::logic_error("no series " + name);
+}
+
 double result(const host::Instance& unit, const Column& c, const std::string& name) {
   const auto& results = unit.unit_class().results;
   for (std::size_t r = 0; r < results.size(); ++r)
@@ -89,6 +96,24 @@ TEST_CASE("scrubber: HCl into caustic leaves (1 - E)^N of itself, the bound of N
   const Column c = run(ideal, vent_gas(1e-3), caustic(1.0, 0.5));
   CHECK(result(ideal, c, "outlet_hcl_ppmv") < 1e-6);
   CHECK(result(ideal, c, "removal_hcl") == Approx(1.0).margin(1e-12));
+}
+
+TEST_CASE("scrubber: stage profiles come out as series, top stage first", "[scrubber]") {
+  auto unit = scrubber_module().create(
+      "scrubber", std::vector<ParameterValue>{{"stages", 4.0}, {"efficiency_hcl", 0.5}}, caustic_slate);
+  const Column c = run(unit, vent_gas(1e-3), caustic(1.0, 0.5));
+  const host::SeriesValues& temperature = series(unit, c, "stage_temperature");
+  REQUIRE(temperature.x.size() == 4);
+  CHECK(temperature.x.front() == 1.0);
+  CHECK(temperature.y.back() == Approx(result(unit, c, "liquor_outlet_temperature")).epsilon(1e-15));
+  // The HCl in the gas halves from stage to stage on the way up (E = 0.5, no back-pressure).
+  const host::SeriesValues& hcl = series(unit, c, "stage_gas_hcl");
+  REQUIRE(hcl.y.size() == 4);
+  for (std::size_t j = 0; j + 1 < 4; ++j) CHECK(hcl.y[j] / hcl.y[j + 1] == Approx(0.5).epsilon(1e-9));
+  CHECK(hcl.y.front() == Approx(result(unit, c, "outlet_hcl_ppmv") * 1e-6).epsilon(1e-12));
+  CHECK(series(unit, c, "stage_ph").y.size() == 4);
+  CHECK(series(unit, c, "stage_liquid_hcl").y.size() == 4);
+  CHECK(series(unit, c, "stage_gas_so2").y.empty());  // SO2 is not on the slate
 }
 
 TEST_CASE("scrubber: element, charge, mass and energy balances close to round-off", "[scrubber]") {

@@ -274,6 +274,30 @@ void Scrubber::solve(std::span<const unit::InletState> inlets, std::span<unit::O
   }
   results.set("stages_for_limit", stages_for_limit);
 
+  // Stage profiles from the column as solved (the search for the limit re-solved it last).
+  unit::Series& temperature_profile = results.series("stage_temperature");
+  unit::Series& ph_profile = results.series("stage_ph");
+  for (std::size_t j = 0; j < n; ++j) {
+    temperature_profile.add(double(j + 1), profile.temperature[j]);
+    ph_profile.add(double(j + 1), model_->state(j).ph);
+  }
+  for (std::size_t k = 0; k < gas_count; ++k) {
+    const ColumnGas& gas = chemistry_.gases[k];
+    const std::size_t trade = trade_index(gas.component);
+    if (trade == none && gas.component != "H2O") continue;
+    const std::string name = trade == none ? std::string("h2o") : std::string(trade_gases[trade]);
+    unit::Series& in_gas = results.series("stage_gas_" + name);
+    for (std::size_t j = 0; j < n; ++j) {
+      double stage_gas = 0.0;
+      for (std::size_t q = 0; q < gas_count; ++q) stage_gas += profile.gas[j * gas_count + q];
+      in_gas.add(double(j + 1), profile.gas[j * gas_count + k] / stage_gas);
+    }
+    if (trade == none) continue;
+    unit::Series& in_liquid = results.series("stage_liquid_" + name);
+    for (std::size_t j = 0; j < n; ++j)
+      in_liquid.add(double(j + 1), profile.liquid[j * liquid_count + gas.liquid_component] / model_->state(j).water_mass);
+  }
+
   double highest_ph = 0.0;
   double highest_index = -std::numeric_limits<double>::infinity();
   std::string scaling_solid;

@@ -24,6 +24,7 @@ namespace protonflow::scrubber {
 class Scrubber {
  public:
   static constexpr const char* type = "scrubber";
+  static constexpr std::size_t most_stages = 200;
   static constexpr const char* summary =
       "Counter-current absorption column of N stages: acid and basic gases into water or alkaline liquor, "
       "stage temperatures and humidification from the energy balance";
@@ -37,7 +38,7 @@ class Scrubber {
   static constexpr std::array<const char*, 7> trade_formulas{"HCl", "SO2", "HF", "Cl2", "NH3", "H2S", "CO2"};
   static constexpr std::array<const char*, 7> limit_choices{"none", "hcl", "so2", "hf", "cl2", "nh3", "h2s"};
   static constexpr std::array parameters{
-      unit::number("stages", "1", 5.0, 1.0, 200.0, "number of stages, a whole number"),
+      unit::number("stages", "1", 5.0, 1.0, double(most_stages), "number of stages, a whole number"),
       unit::number("efficiency", "1", 1.0, 0.01, 1.0, "Murphree vapour efficiency of every gas not given its own"),
       unit::number("efficiency_hcl", "1", 1.0, 0.01, 1.0, "Murphree vapour efficiency for HCl; default: efficiency"),
       unit::number("efficiency_so2", "1", 1.0, 0.01, 1.0, "Murphree vapour efficiency for SO2; default: efficiency"),
@@ -81,6 +82,28 @@ class Scrubber {
       unit::result("reagent_to_co2", "mol/s", "the part of reagent_consumed taken by CO2 pickup (negative: carbonate gives CO2 up)"),
       unit::result("water_evaporated", "mol/s", "water vapour gained by the gas (negative: condensed)"),
       unit::result("newton_iterations", "1", "Newton iterations of the column solve")};
+
+  // Stage profiles, top stage first (x: the stage number, 1 at the top). A gas not on the slate
+  // leaves its two series empty.
+  static constexpr std::array series{
+      unit::series("stage_temperature", "stage", "1", "temperature", "K", most_stages, "temperature of each stage"),
+      unit::series("stage_ph", "stage", "1", "pH", "1", most_stages, "pH of the liquor leaving each stage"),
+      unit::series("stage_gas_h2o", "stage", "1", "mole_fraction", "1", most_stages, "water vapour in the gas leaving each stage"),
+      unit::series("stage_gas_hcl", "stage", "1", "mole_fraction", "1", most_stages, "HCl in the gas leaving each stage"),
+      unit::series("stage_gas_so2", "stage", "1", "mole_fraction", "1", most_stages, "SO2 in the gas leaving each stage"),
+      unit::series("stage_gas_hf", "stage", "1", "mole_fraction", "1", most_stages, "HF in the gas leaving each stage"),
+      unit::series("stage_gas_cl2", "stage", "1", "mole_fraction", "1", most_stages, "Cl2 in the gas leaving each stage"),
+      unit::series("stage_gas_nh3", "stage", "1", "mole_fraction", "1", most_stages, "NH3 in the gas leaving each stage"),
+      unit::series("stage_gas_h2s", "stage", "1", "mole_fraction", "1", most_stages, "H2S in the gas leaving each stage"),
+      unit::series("stage_gas_co2", "stage", "1", "mole_fraction", "1", most_stages, "CO2 in the gas leaving each stage"),
+      unit::series("stage_liquid_hcl", "stage", "1", "molality", "mol/kg", most_stages, "HCl absorbed in the liquor leaving each stage, all its species, per kg water"),
+      unit::series("stage_liquid_so2", "stage", "1", "molality", "mol/kg", most_stages, "SO2 absorbed in the liquor leaving each stage, all its species, per kg water"),
+      unit::series("stage_liquid_hf", "stage", "1", "molality", "mol/kg", most_stages, "HF absorbed in the liquor leaving each stage, all its species, per kg water"),
+      unit::series("stage_liquid_cl2", "stage", "1", "molality", "mol/kg", most_stages, "Cl2 absorbed in the liquor leaving each stage, all its species, per kg water"),
+      unit::series("stage_liquid_nh3", "stage", "1", "molality", "mol/kg", most_stages, "NH3 absorbed in the liquor leaving each stage, all its species, per kg water"),
+      unit::series("stage_liquid_h2s", "stage", "1", "molality", "mol/kg", most_stages, "H2S absorbed in the liquor leaving each stage, all its species, per kg water"),
+      unit::series("stage_liquid_co2", "stage", "1", "molality", "mol/kg", most_stages, "CO2 absorbed in the liquor leaving each stage, all its species, per kg water")};
+  std::size_t series_length(std::size_t) const { return stages_; }
 
   Scrubber(const unit::Parameters& parameters, const unit::Slate& slate);
 
