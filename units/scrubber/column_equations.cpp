@@ -22,6 +22,10 @@ constexpr double energy_scale_heat_capacity = 75.3;
 // trace level are otherwise homogeneous in its amounts).
 constexpr double trace_mole_fraction = 1e-30;
 
+// No flow on a stage exceeds a thousand times the column's throughput: the unknowns are measured
+// from this bound and KINSOL keeps them below it (docs/units.md, "Solution").
+constexpr double largest_flow_per_throughput = 1e3;
+
 // Difference-quotient steps: the square root of the double epsilon on ln(flow) (a relative step
 // of 1.5e-8) and on T relative to its size (common practice, Dennis & Schnabel 1983, §5.4).
 constexpr double log_step = 1.4901161193847656e-08;
@@ -73,6 +77,8 @@ ColumnEquations::ColumnEquations(StageModel& model, const ColumnSpecification& s
   block_ = liquid_unknowns_.size() + gas_unknowns_.size() + 1;
   flow_scale_ = liquid_total + gas_total;
   energy_scale_ = flow_scale_ * energy_scale_heat_capacity;
+  log_flow_limit_ = std::log(largest_flow_per_throughput * flow_scale_);
+  temperature_floor_ = model.minimum_temperature();
 
   l_.assign(stages_ * liquid_count_, 0.0);
   v_.assign(stages_ * gas_count_, 0.0);
@@ -95,13 +101,17 @@ std::string ColumnEquations::equation_name(std::size_t slot) const {
   return "energy balance";
 }
 
+void ColumnEquations::constraints(double* c) const {
+  for (std::size_t i = 0; i < size(); ++i) c[i] = i % block_ == temperature_slot() ? 2.0 : -2.0;
+}
+
 void ColumnEquations::pack(const ColumnProfile& profile, double* x) const {
   for (std::size_t j = 0; j < stages_; ++j) {
     double* block = x + j * block_;
     std::size_t slot = 0;
-    for (const std::size_t c : liquid_unknowns_) block[slot++] = std::log(profile.liquid[j * liquid_count_ + c]);
-    for (const std::size_t k : gas_unknowns_) block[slot++] = std::log(profile.gas[j * gas_count_ + k]);
-    block[slot] = profile.temperature[j];
+    for (const std::size_t c : liquid_unknowns_) block[slot++] = std::log(profile.liquid[j * liquid_count_ + c]) - log_flow_limit_;
+    for (const std::size_t k : gas_unknowns_) block[slot++] = std::log(profile.gas[j * gas_count_ + k]) - log_flow_limit_;
+    block[slot] = profile.temperature[j] - temperature_floor_;
   }
 }
 
@@ -114,9 +124,9 @@ ColumnProfile ColumnEquations::unpack(const double* x) const {
   for (std::size_t j = 0; j < stages_; ++j) {
     const double* block = x + j * block_;
     std::size_t slot = 0;
-    for (const std::size_t c : liquid_unknowns_) profile.liquid[j * liquid_count_ + c] = std::exp(block[slot++]);
-    for (const std::size_t k : gas_unknowns_) profile.gas[j * gas_count_ + k] = std::exp(block[slot++]);
-    profile.temperature[j] = block[slot];
+    for (const std::size_t c : liquid_unknowns_) profile.liquid[j * liquid_count_ + c] = std::exp(block[slot++] + log_flow_limit_);
+    for (const std::size_t k : gas_unknowns_) profile.gas[j * gas_count_ + k] = std::exp(block[slot++] + log_flow_limit_);
+    profile.temperature[j] = block[slot] + temperature_floor_;
   }
   return profile;
 }
@@ -124,9 +134,9 @@ ColumnProfile ColumnEquations::unpack(const double* x) const {
 void ColumnEquations::read_stage(const double* x, std::size_t stage) {
   const double* block = x + stage * block_;
   std::size_t slot = 0;
-  for (const std::size_t c : liquid_unknowns_) l_[stage * liquid_count_ + c] = std::exp(block[slot++]);
-  for (const std::size_t k : gas_unknowns_) v_[stage * gas_count_ + k] = std::exp(block[slot++]);
-  t_[stage] = block[slot];
+  for (const std::size_t c : liquid_unknowns_) l_[stage * liquid_count_ + c] = std::exp(block[slot++] + log_flow_limit_);
+  for (const std::size_t k : gas_unknowns_) v_[stage * gas_count_ + k] = std::exp(block[slot++] + log_flow_limit_);
+  t_[stage] = block[slot] + temperature_floor_;
 }
 
 void ColumnEquations::evaluate_stage(std::size_t stage, StageEquilibrium& out) {
@@ -176,11 +186,10 @@ void ColumnEquations::residual_block(std::size_t j, const StageEquilibrium& abov
 void ColumnEquations::residual(const double* x, double* f) {
   // A Newton step can land where no stage has an answer: refuse it here, before the engine sees
   // it (flows beyond a thousand times the throughput, a temperature outside the data).
-  const double largest_log_flow = std::log(1e3 * flow_scale_);
   for (std::size_t i = 0; i < size(); ++i) {
     const bool temperature = i % block_ == temperature_slot();
-    const bool outside = temperature ? !(x[i] >= model_.minimum_temperature() && x[i] <= model_.maximum_temperature())
-                                     : !(x[i] <= largest_log_flow && x[i] > -700.0);
+    const bool outside = temperature ? !(x[i] >= 0.0 && x[i] + temperature_floor_ <= model_.maximum_temperature())
+                                     : !(x[i] <= 0.0 && x[i] + log_flow_limit_ > -700.0);
     if (outside)
       throw std::domain_error("a Newton step left the range where stages have an answer (stage " +
                               std::to_string(i / block_ + 1) + ", unknown " + std::to_string(i % block_ + 1) + " = " +
@@ -201,7 +210,7 @@ void ColumnEquations::jacobian(const double* x, SUNMatrix band) {
     for (std::size_t a = 0; a < block_; ++a) {
       const std::size_t column = j * block_ + a;
       const bool is_temperature = a == temperature_slot();
-      const double step = log_step * std::max(std::abs(x[column]), 1.0);
+      const double step = log_step * std::max(std::abs(is_temperature ? x[column] + temperature_floor_ : x[column] + log_flow_limit_), 1.0);
       moved[column] = x[column] + step;
       const double actual_step = moved[column] - x[column];  // the step as represented
       read_stage(moved.data(), j);

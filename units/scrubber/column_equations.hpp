@@ -3,7 +3,9 @@
 // column_start.cpp gives it its first profile.
 //
 // Unknowns, block j for stage j (top first): ln l_jc for every liquid component that can be
-// present, ln v_jk for every gas that can be present, T_j. Residuals, block j, in the same order:
+// present, ln v_jk for every gas that can be present, T_j; the logarithms measured from the
+// largest flow allowed (so they stay negative) and T from the data's lowest temperature (so it
+// stays positive): KINSOL's sign constraints then keep every step where stages have an answer. Residuals, block j, in the same order:
 //   balance of c:     ln(in) − ln(out),  in = l_(j−1)c + v_(j+1)k(c),  out = l_jc + v_jk(c)
 //   gas k dissolving: ln v_jk − ln(V_j [(1 − E_k) y_(j+1)k + E_k p*_jk / P])        (Murphree)
 //   gas k inert:      ln v_jk − ln v_(j+1)k
@@ -29,6 +31,8 @@ class ColumnEquations {
   std::size_t stages() const noexcept { return stages_; }
   std::size_t block() const noexcept { return block_; }
   std::size_t size() const noexcept { return stages_ * block_; }
+  // KINSOL's constraint for each unknown: −2 (< 0) for a flow, 2 (> 0) for a temperature.
+  void constraints(double* c) const;
   // Position of the temperature in a block, and whether an unknown is a temperature.
   std::size_t temperature_slot() const noexcept { return block_ - 1; }
 
@@ -43,8 +47,8 @@ class ColumnEquations {
   // column costs one stage evaluation (none for a gas flow) instead of a whole column's.
   void jacobian(const double* x, SUNMatrix band);
 
-  // The first profile: a cheap pass (column_start.cpp).
-  ColumnProfile start_profile();
+  // The first profile: a cheap pass of this many sweeps (column_start.cpp).
+  ColumnProfile start_profile(int sweeps);
 
   // Name of equation `slot` of a block, for error reports.
   std::string equation_name(std::size_t slot) const;
@@ -69,6 +73,8 @@ class ColumnEquations {
   std::size_t block_;
   double flow_scale_;    // mol/s, both feeds together
   double energy_scale_;  // W per unit energy residual
+  double log_flow_limit_;     // ln of the largest flow allowed, mol/s
+  double temperature_floor_;  // K, the stage model's lowest temperature
   // Working profile (all components and gases, zero where absent), and each stage's equilibrium.
   std::vector<double> l_, v_, t_;
   std::vector<StageEquilibrium> equilibrium_;

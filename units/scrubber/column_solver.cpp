@@ -18,6 +18,14 @@ namespace protonflow::scrubber {
 
 namespace {
 
+// Two attempts, the second more careful: more sweeps of the start, shorter Newton steps (scaled
+// 2-norm of the step; ln(flow) is already of order one).
+struct Attempt {
+  int sweeps;
+  double max_step;
+};
+constexpr Attempt attempts[] = {{8, 50.0}, {24, 15.0}};
+
 // What the callbacks share with the driver: the equations, and the first failure of a stage
 // evaluation (a speciation that did not converge, a temperature out of the data's range).
 struct CallbackData {
@@ -62,7 +70,7 @@ T* check_created(T* created, const char* call) {
 // The SUNDIALS objects of one solve, freed in reverse order of creation whatever happens.
 struct KinsolObjects {
   SUNContext context = nullptr;
-  N_Vector u = nullptr, u_scale = nullptr, f_scale = nullptr;
+  N_Vector u = nullptr, u_scale = nullptr, f_scale = nullptr, constraints = nullptr;
   SUNMatrix band = nullptr;
   SUNLinearSolver linear_solver = nullptr;
   void* kinsol = nullptr;
@@ -70,6 +78,7 @@ struct KinsolObjects {
     KINFree(&kinsol);
     if (linear_solver) SUNLinSolFree(linear_solver);
     if (band) SUNMatDestroy(band);
+    if (constraints) N_VDestroy(constraints);
     if (f_scale) N_VDestroy(f_scale);
     if (u_scale) N_VDestroy(u_scale);
     if (u) N_VDestroy(u);
@@ -89,10 +98,14 @@ std::vector<StageResidual> largest_residuals(detail::ColumnEquations& equations,
 
 }  // namespace
 
-ColumnProfile solve_column(StageModel& model, const ColumnSpecification& specification, const ColumnFeeds& feeds) {
-  detail::ColumnEquations equations(model, specification, feeds);
-  const ColumnProfile start = equations.start_profile();
+namespace {
+
+// One solve from a start of `sweeps` sweeps, Newton steps at most `max_step` long.
+ColumnProfile solve_once(detail::ColumnEquations& equations, const ColumnSpecification& specification, int sweeps,
+                         double max_step) {
+  const ColumnProfile start = equations.start_profile(sweeps);
   CallbackData data{&equations, {}};
+
 
   // Set-up: context, vectors, the band matrix (half-bandwidths 2b − 1 for blocks of b unknowns)
   // and its LU solver, the options.
@@ -109,6 +122,8 @@ ColumnProfile solve_column(StageModel& model, const ColumnSpecification& specifi
   double* u_scale = N_VGetArrayPointer(k.u_scale);
   for (std::size_t i = 0; i < equations.size(); ++i) u_scale[i] = i % equations.block() == equations.temperature_slot() ? 0.1 : 1.0;
   N_VConst(1.0, k.f_scale);  // every residual is scaled where it is written
+  k.constraints = check_created(N_VNew_Serial(length, k.context), "N_VNew_Serial");
+  equations.constraints(N_VGetArrayPointer(k.constraints));
   k.kinsol = check_created(KINCreate(k.context), "KINCreate");
   check(KINInit(k.kinsol, residual_callback, k.u), "KINInit");
   check(KINSetUserData(k.kinsol, &data), "KINSetUserData");
@@ -117,6 +132,8 @@ ColumnProfile solve_column(StageModel& model, const ColumnSpecification& specifi
   check(KINSetScaledStepTol(k.kinsol, 1e-14), "KINSetScaledStepTol");
   check(KINSetNumMaxIters(k.kinsol, specification.max_iterations), "KINSetNumMaxIters");
   check(KINSetMaxSetupCalls(k.kinsol, 1), "KINSetMaxSetupCalls");  // exact Newton: a fresh Jacobian each step
+  check(KINSetConstraints(k.kinsol, k.constraints), "KINSetConstraints");
+  check(KINSetMaxNewtonStep(k.kinsol, max_step), "KINSetMaxNewtonStep");
   k.band = check_created(SUNBandMatrix(length, half_band, half_band, k.context), "SUNBandMatrix");
   k.linear_solver = check_created(SUNLinSol_Band(k.u, k.band, k.context), "SUNLinSol_Band");
   check(KINSetLinearSolver(k.kinsol, k.linear_solver, k.band), "KINSetLinearSolver");
@@ -150,6 +167,19 @@ ColumnProfile solve_column(StageModel& model, const ColumnSpecification& specifi
   profile.iterations = iterations;
   profile.residual_norm = norm;
   return profile;
+}
+
+}  // namespace
+
+ColumnProfile solve_column(StageModel& model, const ColumnSpecification& specification, const ColumnFeeds& feeds) {
+  detail::ColumnEquations equations(model, specification, feeds);
+  for (std::size_t a = 0;; ++a) {
+    try {
+      return solve_once(equations, specification, attempts[a].sweeps, attempts[a].max_step);
+    } catch (const ColumnConvergenceError&) {
+      if (a + 1 == std::size(attempts)) throw;
+    }
+  }
 }
 
 }  // namespace protonflow::scrubber

@@ -17,7 +17,6 @@ namespace protonflow::scrubber::detail {
 
 namespace {
 
-constexpr int sweeps = 8;
 constexpr double relaxation = 0.5;  // fraction of the step in ln(flow) taken per sweep
 constexpr double largest_log_step = 2.0;  // and at most a factor e² per sweep
 // Molar heat capacities for the temperature step only, J/(mol K): liquid water 75.3 and water
@@ -44,7 +43,7 @@ void solve_tridiagonal(const std::vector<double>& a, std::vector<double>& b, con
 
 }  // namespace
 
-ColumnProfile ColumnEquations::start_profile() {
+ColumnProfile ColumnEquations::start_profile(int sweeps) {
   const std::size_t n = stages_;
   const double floor = flow_floor * flow_scale_;
   const double t_low = model_.minimum_temperature() + 0.5;
