@@ -78,6 +78,8 @@ Scrubber::Scrubber(const unit::Parameters& parameters, const unit::Slate& slate)
     : stages_(0),
       limit_gas_(none),
       emission_limit_(parameters.number("emission_limit")),
+      reference_oxygen_(parameters.given("reference_oxygen") ? parameters.number("reference_oxygen") : not_a_number),
+      oxygen_gas_(none),
       chemistry_(build_chemistry(slate, parameters.text("activity_model"))),
       model_(std::make_unique<ChemistryStageModel>(*chemistry_.liquid_system, *chemistry_.flash_system, chemistry_.gases)) {
   const double stages = parameters.number("stages");
@@ -92,6 +94,11 @@ Scrubber::Scrubber(const unit::Parameters& parameters, const unit::Slate& slate)
                                                    : "";
     efficiency_.push_back(!name.empty() && parameters.given(name) ? parameters.number(name) : common);
   }
+  for (std::size_t k = 0; k < chemistry_.gases.size(); ++k)
+    if (chemistry_.gases[k].component == "O2") oxygen_gas_ = k;
+  if (!std::isnan(reference_oxygen_) && oxygen_gas_ == none)
+    throw unit::UnitError(PFU_INVALID_PARAMETER,
+                          "unit 'scrubber': reference_oxygen needs O2 on the slate, to know the gas's own oxygen content");
   const std::string& limit = parameters.text("limit_gas");
   if (limit != "none") {
     if (!parameters.given("emission_limit"))
@@ -131,7 +138,12 @@ double Scrubber::dry_concentration(const ColumnProfile& profile, std::size_t gas
     if (chemistry_.gases[k].component != "H2O") dry += profile.gas[k];
   const double molar_mass = chemistry_.liquid_system->component_molar_mass(chemistry_.gases[gas].liquid_component);
   const double normal_molar_volume = thermo::constants::gas_constant * normal_temperature / normal_pressure;  // m³/mol
-  return profile.gas[gas] / dry * molar_mass / normal_molar_volume;
+  const double concentration = profile.gas[gas] / dry * molar_mass / normal_molar_volume;
+  if (std::isnan(reference_oxygen_)) return concentration;
+  // To the reference oxygen content: C_ref = C (21 − O_ref) / (21 − O_measured), volume percent of
+  // dry gas (eu-ied-2010, Annex VI, from memory).
+  const double oxygen = profile.gas[oxygen_gas_] / dry;
+  return concentration * (0.21 - reference_oxygen_) / (0.21 - oxygen);
 }
 
 void Scrubber::solve(std::span<const unit::InletState> inlets, std::span<unit::OutletState> outlets, unit::Results& results,

@@ -51,6 +51,8 @@ class Scrubber {
       unit::choice("limit_gas", limit_choices, "none", "the gas an emission limit applies to"),
       unit::number("emission_limit", "kg/m^3", 0.0, 0.0, unit::unbounded,
                    "emission limit for limit_gas, per normal cubic metre (0 degC, 101.325 kPa) of dry gas"),
+      unit::number("reference_oxygen", "1", 0.0, 0.0, 0.2,
+                   "O2 volume fraction of dry gas the outlet concentrations are corrected to; default: no correction"),
       units::activity_model_parameter};
   static constexpr std::array results{
       unit::result("gas_outlet_temperature", "K", "temperature of the cleaned gas (top stage)"),
@@ -63,13 +65,13 @@ class Scrubber {
       unit::result("outlet_nh3_ppmv", "1e-6", "NH3 in the cleaned gas, mole fraction of the wet gas; NaN if not on the slate"),
       unit::result("outlet_h2s_ppmv", "1e-6", "H2S in the cleaned gas, mole fraction of the wet gas; NaN if not on the slate"),
       unit::result("outlet_co2_ppmv", "1e-6", "CO2 in the cleaned gas, mole fraction of the wet gas; NaN if not on the slate"),
-      unit::result("outlet_hcl_concentration", "kg/m^3", "HCl in the cleaned gas per normal cubic metre of dry gas"),
-      unit::result("outlet_so2_concentration", "kg/m^3", "SO2 in the cleaned gas per normal cubic metre of dry gas"),
-      unit::result("outlet_hf_concentration", "kg/m^3", "HF in the cleaned gas per normal cubic metre of dry gas"),
-      unit::result("outlet_cl2_concentration", "kg/m^3", "Cl2 in the cleaned gas per normal cubic metre of dry gas"),
-      unit::result("outlet_nh3_concentration", "kg/m^3", "NH3 in the cleaned gas per normal cubic metre of dry gas"),
-      unit::result("outlet_h2s_concentration", "kg/m^3", "H2S in the cleaned gas per normal cubic metre of dry gas"),
-      unit::result("outlet_co2_concentration", "kg/m^3", "CO2 in the cleaned gas per normal cubic metre of dry gas"),
+      unit::result("outlet_hcl_concentration", "kg/m^3", "HCl in the cleaned gas per normal cubic metre of dry gas, at reference_oxygen if given"),
+      unit::result("outlet_so2_concentration", "kg/m^3", "SO2 in the cleaned gas per normal cubic metre of dry gas, at reference_oxygen if given"),
+      unit::result("outlet_hf_concentration", "kg/m^3", "HF in the cleaned gas per normal cubic metre of dry gas, at reference_oxygen if given"),
+      unit::result("outlet_cl2_concentration", "kg/m^3", "Cl2 in the cleaned gas per normal cubic metre of dry gas, at reference_oxygen if given"),
+      unit::result("outlet_nh3_concentration", "kg/m^3", "NH3 in the cleaned gas per normal cubic metre of dry gas, at reference_oxygen if given"),
+      unit::result("outlet_h2s_concentration", "kg/m^3", "H2S in the cleaned gas per normal cubic metre of dry gas, at reference_oxygen if given"),
+      unit::result("outlet_co2_concentration", "kg/m^3", "CO2 in the cleaned gas per normal cubic metre of dry gas, at reference_oxygen if given"),
       unit::result("removal_hcl", "1", "fraction of the HCl fed in the gas that the column removes"),
       unit::result("removal_so2", "1", "fraction of the SO2 fed in the gas that the column removes"),
       unit::result("removal_hf", "1", "fraction of the HF fed in the gas that the column removes"),
@@ -118,6 +120,8 @@ class Scrubber {
   std::vector<double> efficiency_;  // per column gas
   std::size_t limit_gas_;           // column gas the limit applies to, or StageModel::no_component
   double emission_limit_;           // kg/m³
+  double reference_oxygen_;         // dry volume fraction, NaN for no correction
+  std::size_t oxygen_gas_;          // column gas O2, or StageModel::no_component
   ColumnChemistry chemistry_;       // owns the liquid system the stage model points at: must not move
   std::unique_ptr<ChemistryStageModel> model_;
 };
