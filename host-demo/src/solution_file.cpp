@@ -17,9 +17,9 @@ namespace protonflow::host {
 namespace {
 
 constexpr std::array<std::string_view, 1> top_level_keys{"solution"};
-constexpr std::array<std::string_view, 11> solution_keys{
+constexpr std::array<std::string_view, 12> solution_keys{
     "name",       "temperature", "pressure",  "activity_model", "amounts_as", "water_mass",
-    "components", "may_precipitate", "open_to", "gas_phase",   "enthalpy"};
+    "components", "may_precipitate", "open_to", "gas_phase",   "enthalpy", "precipitates"};
 constexpr std::array<std::string_view, 3> activity_model_names{"davies", "b-dot", "ideal"};
 constexpr std::array<std::string_view, 3> basis_names{"molality", "moles", "mass_fraction"};
 
@@ -335,6 +335,17 @@ SolutionInput read_solution_file(const std::string& file, const UnitConverter& u
       const double pressure = read_quantity(file, gas, units, "Pa", "40 Pa", "a partial pressure needs its unit");
       if (!(pressure > 0.0)) throw InputError(position_of(file, pair.second), "a partial pressure must be above zero");
       input.open_gases.push_back(PhaseEntry{pair.first.Scalar(), pressure, position_of(file, pair.first)});
+    }
+  }
+  if (const Entry* const age = find_entry(entries, "precipitates")) {
+    const std::string value = age->value.IsScalar() ? age->value.Scalar() : std::string();
+    if (value == "fresh") {
+      input.precipitates = thermo::PrecipitateAge::fresh;
+    } else if (value == "aged") {
+      input.precipitates = thermo::PrecipitateAge::aged;
+    } else {
+      throw InputError(position_of(file, age->value.IsNull() ? age->key : age->value),
+                       "'precipitates' is fresh (amorphous, freshly precipitated solids) or aged (crystalline forms)");
     }
   }
   if (const Entry* const gas = find_entry(entries, "gas_phase")) {

@@ -8,6 +8,7 @@
 
 #include "input_error.hpp"
 #include "protonflow/thermo/activity_model.hpp"
+#include "protonflow/thermo/species.hpp"
 #include "quantity.hpp"
 
 namespace protonflow::host {
@@ -48,6 +49,8 @@ struct SolutionInput {
   // Solids allowed to precipitate; every solid the components reach when may_precipitate is 'all'.
   std::vector<PhaseEntry> solids;
   bool all_solids = false;
+  // Fresh (amorphous) or aged (crystalline) forms of the solids that have both.
+  thermo::PrecipitateAge precipitates = thermo::PrecipitateAge::fresh;
   std::vector<PhaseEntry> open_gases;  // fixed partial pressures
   bool gas_phase = false;              // a closed gas phase may form at the pressure
   std::optional<double> enthalpy;      // J for the amounts given: find the temperature

@@ -99,6 +99,7 @@ SpeciationReport make_report(const SolutionInput& input, const thermo::ChemicalS
   report.name = input.name;
   report.activity_model = std::string(to_string(input.activity_model));
   report.amounts_as = std::string(to_string(input.basis));
+  report.precipitates = thermo::to_string(input.precipitates);
   report.components = system.components();
   report.closure = measure_closure(system, amounts, speciation);
   report.component_amounts = std::move(amounts);
@@ -115,7 +116,12 @@ SpeciationReport make_report(const SolutionInput& input, const thermo::ChemicalS
   for (const thermo::PhaseSpecies& gas : system.open_gases()) report.open_gases.push_back(gas.name);
   for (const thermo::PhaseSpecies& gas : system.phase_gases()) report.phase_gases.push_back(gas.name);
   for (std::size_t p = 0; p < system.solids().size(); ++p)
-    if (speciation.solid_amount[p] > 0.0) report.warnings.push_back(fmt::format("{} precipitates", system.solids()[p].name));
+    if (speciation.solid_amount[p] > 0.0) {
+      const thermo::PhaseSpecies& solid = system.solids()[p];
+      report.warnings.push_back(solid.age == thermo::PrecipitateAge::any
+                                    ? fmt::format("{} precipitates", solid.name)
+                                    : fmt::format("{} precipitates (the {} form)", solid.name, thermo::to_string(solid.age)));
+    }
   if (speciation.gas_phase_present)
     report.warnings.push_back("a gas phase forms: the solution degasses or boils at this temperature and pressure");
   report.speciation = std::move(speciation);
@@ -144,6 +150,7 @@ int speciate(const SpeciateOptions& options, std::ostream& out, std::ostream& er
     thermo::SystemOptions system_options;
     system_options.activity = input.activity_model;
     system_options.gas_phase = input.gas_phase;
+    system_options.precipitates = input.precipitates;
     for (const PhaseEntry& gas : input.open_gases) system_options.open_gases.push_back(gas.name);
     if (input.all_solids) {
       const thermo::ChemicalSystem without(database, slate.names, system_options);

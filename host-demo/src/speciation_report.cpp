@@ -43,6 +43,7 @@ std::string to_yaml(const SpeciationReport& report) {
   }
   out << YAML::Key << "activity_model" << YAML::Value << report.activity_model;
   out << YAML::Key << "amounts_as" << YAML::Value << report.amounts_as;
+  out << YAML::Key << "precipitates" << YAML::Value << report.precipitates;
   emit_number(out, "temperature_K", s.temperature);
   emit_number(out, "pressure_Pa", s.pressure);
   emit_number(out, "pH", s.ph);
@@ -137,6 +138,7 @@ std::string to_table(const SpeciationReport& report) {
   line("temperature", fmt::format("{:.2f} °C  ({:.2f} K)", s.temperature - celsius_offset, s.temperature));
   line("pressure", fmt::format("{:.3f} kPa", s.pressure / 1000.0));
   line("activity model", report.activity_model);
+  line("precipitates", report.precipitates);
   line("pH", fmt::format("{:.4f}", s.ph));
   line("ionic strength", fmt::format("{:.4e} mol/kg", s.ionic_strength));
   line("water", fmt::format("{:.6f} kg, activity {:.6f}", s.water_mass, s.water_activity));

@@ -21,6 +21,7 @@ struct SpeciationReport {
   std::string name;            // the solution's label, may be empty
   std::string activity_model;  // as written in the input
   std::string amounts_as;
+  std::string precipitates;    // "fresh" or "aged": which form of a solid with two may precipitate
   std::vector<std::string> components;  // the slate
   std::vector<double> component_amounts;  // mol, as passed to the solver
   std::vector<SoluteLabel> solutes;     // in the order of speciation's vectors

@@ -1,8 +1,11 @@
 #include "reference_cases.hpp"
 
 #include <cmath>
+#include <functional>
+#include <tuple>
 #include <fmt/format.h>
 
+#include "protonflow/thermo/constants.hpp"
 #include "protonflow/thermo/formula.hpp"
 #include "protonflow/thermo/water_properties.hpp"
 #include "solution_probe.hpp"
@@ -178,6 +181,69 @@ std::vector<ReferenceCase> build_cases() {
   // is the standard-state one, so the case sums the engine's standard-state species enthalpies.
   cases.push_back({energy, "H2SO4(l) → 2 H^+ + SO4^2-, standard states", nbs, -95.28, 0.3,
                    [] { return standard_dissolution_enthalpy("H2SO4", "H2SO4(l)") / 1e3; }});
+
+  // Metal hydrolysis, complexes and solids, 25 °C, infinite dilution: the data against the compilations'
+  // recommended values (log *beta of M + n H2O = M(OH)n + n H^+; log *Ks of the solid's dissolution with H^+).
+  const std::string metals = "Metal hydrolysis, complexes and solids, 25 °C, infinite dilution";
+  const std::string powell07 = "Powell et al. 2007, Pure Appl. Chem. 79, 895 (from memory)";
+  const std::string powell13 = "Powell et al. 2013, Pure Appl. Chem. 85, 2249 (from memory)";
+  const std::string brown = "Brown & Ekberg 2016, Hydrolysis of Metal Ions";
+  const std::string nordstrom = "Nordstrom et al. 1990, ACS Symp. Ser. 416, 398 (from memory)";
+  const std::string rai = "Rai, Sass & Moore 1987, Inorg. Chem. 26, 345 (from memory)";
+  const auto log_beta = [](const char* species) { return [species] { return formation_log_k(species); }; };
+  const auto log_ks = [](const char* solid) { return [solid] { return -formation_log_k(solid); }; };
+  for (const auto& [quantity, source, published, model] : std::vector<std::tuple<std::string, std::string, double, std::function<double()>>>{
+           {"log *beta1 CuOH^+", powell07, -7.95, log_beta("CuOH^+")},
+           {"log *beta2 Cu(OH)2(aq)", powell07, -16.2, log_beta("Cu(OH)2(aq)")},
+           {"log *beta3 Cu(OH)3^-", powell07, -26.60, log_beta("Cu(OH)3^-")},
+           {"log *beta4 Cu(OH)4^2-", powell07, -39.74, log_beta("Cu(OH)4^2-")},
+           {"log *Ks Cu(OH)2(s)", powell07, 8.67, log_ks("Cu(OH)2(s)")},
+           {"log *Ks tenorite CuO", powell07, 7.64, log_ks("tenorite")},
+           {"log *beta1 ZnOH^+", powell13, -8.96, log_beta("ZnOH^+")},
+           {"log *beta2 Zn(OH)2(aq)", powell13, -17.82, log_beta("Zn(OH)2(aq)")},
+           {"log *beta3 Zn(OH)3^-", powell13, -28.05, log_beta("Zn(OH)3^-")},
+           {"log *beta4 Zn(OH)4^2-", powell13, -40.41, log_beta("Zn(OH)4^2-")},
+           {"log *Ks zincite ZnO", powell13, 11.12, log_ks("zincite")},
+           {"log *beta2 Al(OH)2^+", brown, -10.63, log_beta("Al(OH)2^+")},
+           {"log *beta3 Al(OH)3(aq)", brown, -15.66, log_beta("Al(OH)3(aq)")},
+           {"log *Ks gibbsite", brown, 7.75, log_ks("gibbsite")},
+           {"log *Ks Al(OH)3(am)", nordstrom, 10.8, log_ks("Al(OH)3(am)")},
+           {"log *Ks ferrihydrite Fe(OH)3", nordstrom, 4.891, log_ks("ferrihydrite")},
+           {"log *beta3 Fe(OH)3(aq)", nordstrom, -12.56, log_beta("Fe(OH)3(aq)")},
+           {"log *beta1 FeOH^+", nordstrom, -9.5, log_beta("FeOH^+")},
+           {"log *Ks Fe(OH)2(s)", nordstrom, 13.564, log_ks("Fe(OH)2(s)")},
+           {"log Ksp siderite FeCO3", nordstrom, -10.89, log_ks("siderite")},
+           {"log K FeSO4(aq)", nordstrom, 2.25, log_beta("FeSO4(aq)")},
+           {"log K CaF^+", nordstrom, 0.94, log_beta("CaF^+")},
+           {"log K AlF^2+", nordstrom, 7.0, log_beta("AlF^2+")},
+           {"log K FeSO4^+", nordstrom, 4.04, log_beta("FeSO4^+")},
+           {"log *Ks Cr(OH)3(am)", rai, 9.35, log_ks("Cr(OH)3(am)")},
+           {"log *beta3 Cr(OH)3(aq)", rai, -16.19, log_beta("Cr(OH)3(aq)")},
+           {"log *beta1 MnOH^+", nordstrom, -10.59, log_beta("MnOH^+")},
+       }) {
+    cases.push_back({metals, quantity, source, published, 0.005, model});
+  }
+  cases.push_back({constants, "pKa of HOCl", "Morris 1966, J. Phys. Chem. 70, 3798 (from memory)", 7.53, 0.01,
+                   [] { return -formation_log_k("OCl^-"); }});
+  cases.push_back({constants, "Cl2(aq) + H2O = HOCl + H^+ + Cl^-, log K", "Wang & Margerum 1994, Inorg. Chem. 33, 1050 (from memory)",
+                   -3.35, 0.1, [] { return -formation_log_k("Cl2(aq)"); }});
+  // In 0.1 mol/kg HCl, as molecular solubility is measured: the acid holds the hydrolysis back.
+  cases.push_back({henry, "Cl2 (molecular) at 1e-3 atm over 0.1 mol/kg HCl: m(Cl2(aq)) / p",
+                   "Sander 2015, listing NBS 1982 (read)", 0.062, 0.003, [] {
+                     const ProbeResult r = solve_open_to({{"HCl", 0.1}}, "Cl2(g)", 1e-3 * 101325.0, ActivityModelKind::ideal);
+                     return r.molality("Cl2(aq)") / 1e-3;
+                   }});
+  // Dissolved O2 from water-saturated air at 1 atm: KH(T) times p(O2) = 0.20946 (101.325 kPa - p_sat(T)).
+  const auto oxygen_mg_per_kg = [](double temperature) {
+    const double p_o2 = 0.20946 * (thermo::constants::standard_atmosphere - thermo::water_saturation_pressure(temperature)) /
+                        thermo::constants::standard_atmosphere;
+    return std::pow(10.0, -formation_log_k("O2(g)", temperature)) * p_o2 * 31998.8;
+  };
+  const std::string benson = "Benson & Krause 1984, Limnol. Oceanogr. 29, 620 (from memory)";
+  cases.push_back({henry, "O2 from air at 25 °C, mg per kg of water", benson, 8.27, 0.1, [=] { return oxygen_mg_per_kg(298.15); }});
+  cases.push_back({henry, "O2 from air at 10 °C, mg per kg of water", benson, 11.29, 0.25,
+                   [=] { return oxygen_mg_per_kg(283.15); },
+                   "van 't Hoff with Sander's 1700 K instead of the published fit: within 2 %"});
 
   cases.push_back({masses, "M(H2SO4)", pt, 98.0785, 1e-4, [] { return grams_per_mole("H2SO4"); }});
   cases.push_back({masses, "M(CaSO4·2H2O)", pt, 172.1712, 1e-4, [] { return grams_per_mole("CaSO4.2H2O"); }});

@@ -77,24 +77,49 @@ TEST_CASE("lime added to sulfuric acid precipitates gypsum once the solution sat
 TEST_CASE("gibbsite dissolves again as aluminate at high pH") {
   SystemOptions options;
   options.allowed_solids = {"gibbsite"};
+  options.precipitates = PrecipitateAge::aged;  // gibbsite is the aged form of Al(OH)3
   const ChemicalSystem system(database(), {"H2O", "Al(OH)3", "NaOH"}, options);
   EquilibriumSolver solver(system);
   const std::size_t gibbsite = solid_index(system, "gibbsite");
   const std::size_t aluminate = system.index_of_solute("Al(OH)4^-");
   double previous_solid = 1.0;
-  for (const double base : {0.0, 1e-3, 1e-2, 3e-2, 0.1}) {
+  for (const double base : {0.0, 1e-3, 1e-2, 3e-2, 0.1, 0.3}) {
     const Speciation s = solver.solve(298.15, 101325.0, std::vector<double>{kilogram_of_water, 0.01, base});
     INFO("NaOH " << base << " mol/kg, pH " << s.ph);
     CHECK(s.solid_amount[gibbsite] <= previous_solid);
     previous_solid = s.solid_amount[gibbsite];
     if (base == 0.0) CHECK(s.solid_amount[gibbsite] > 0.0099);  // nearly insoluble near neutral pH
-    if (base == 0.1) {
-      // 0.1 mol/kg NaOH takes all 0.01 mol of Al into Al(OH)4^- (amphoteric hydroxide).
+    if (base == 0.3) {
+      // 0.3 mol/kg NaOH takes all 0.01 mol of Al into Al(OH)4^- (amphoteric hydroxide): gibbsite +
+      // OH^- = Al(OH)4^- has log K 7.75 - 22.91 + 14.0 = -1.16 (Brown & Ekberg 2016), so about 0.02
+      // mol/kg of aluminate at pH 13.4 would be needed to saturate.
       CHECK(s.solid_amount[gibbsite] == 0.0);
       CHECK(s.saturation_index[gibbsite] < 0.0);
       CHECK(s.molality[aluminate] * s.water_mass == Approx(0.01).epsilon(1e-3));
     }
   }
+}
+
+TEST_CASE("the fresh form precipitates by default, the aged one only when asked for") {
+  SystemOptions options;
+  options.allowed_solids = {"Al(OH)3(am)", "gibbsite"};
+  const std::vector<double> amounts{kilogram_of_water, 0.01, 0.0};
+  const ChemicalSystem fresh_system(database(), {"H2O", "Al(OH)3", "NaOH"}, options);
+  EquilibriumSolver fresh_solver(fresh_system);
+  const Speciation fresh = fresh_solver.solve(298.15, 101325.0, amounts);
+  CHECK(fresh.solid_amount[solid_index(fresh_system, "Al(OH)3(am)")] > 0.0099);
+  CHECK(fresh.solid_amount[solid_index(fresh_system, "gibbsite")] == 0.0);
+  // Supersaturated with the crystalline form, which is not allowed to form: log *Ks 10.8 vs 7.75
+  // (Nordstrom et al. 1990; Brown & Ekberg 2016), a difference of 3.05 in the saturation index.
+  CHECK(fresh.saturation_index[solid_index(fresh_system, "gibbsite")] == Approx(10.8 - 7.75).margin(1e-6));
+
+  options.precipitates = PrecipitateAge::aged;
+  const ChemicalSystem aged_system(database(), {"H2O", "Al(OH)3", "NaOH"}, options);
+  EquilibriumSolver aged_solver(aged_system);
+  const Speciation aged = aged_solver.solve(298.15, 101325.0, amounts);
+  CHECK(aged.solid_amount[solid_index(aged_system, "gibbsite")] > 0.0099);
+  CHECK(aged.solid_amount[solid_index(aged_system, "Al(OH)3(am)")] == 0.0);
+  CHECK(aged.saturation_index[solid_index(aged_system, "Al(OH)3(am)")] == Approx(7.75 - 10.8).margin(1e-6));
 }
 
 TEST_CASE("a solution saturated with two solids at once") {

@@ -126,11 +126,16 @@ ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string
     return s;
   };
   for (const std::string& name : options_.allowed_solids) require_phase(name, Phase::solid, "solid");
+  if (options_.precipitates == PrecipitateAge::any)
+    throw ThermoError(ErrorKind::bad_input, "the precipitates to use are either the fresh or the aged ones");
   for (const Species& s : database.species()) {
     if (s.phase != Phase::solid || !reachable(s)) continue;
     PhaseSpecies p = make_phase_species(s);
-    p.allowed = std::find(options_.allowed_solids.begin(), options_.allowed_solids.end(), s.name) !=
-                options_.allowed_solids.end();
+    p.age = s.precipitate_age;
+    // A solid of the other age is reported by its saturation index only.
+    const bool right_age = p.age == PrecipitateAge::any || p.age == options_.precipitates;
+    p.allowed = right_age && std::find(options_.allowed_solids.begin(), options_.allowed_solids.end(), s.name) !=
+                                 options_.allowed_solids.end();
     solids_.push_back(std::move(p));
   }
   std::vector<std::size_t> pivots_taken;

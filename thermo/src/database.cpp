@@ -44,7 +44,7 @@ class DataFileReader {
     if (!node.IsMap()) fail(node, "each species is a map of keys");
     check_keys(node, {"name", "formula", "phase", "basis", "ion_size_angstrom", "formation_enthalpy_kJ_mol",
                       "entropy_J_mol_K", "heat_capacity_J_mol_K", "reaction", "log10_K_298K", "temperature_function",
-                      "temperature_range_K", "note"});
+                      "temperature_range_K", "precipitate_age", "note"});
     Species s;
     s.file = file_;
     s.line = node.Mark().line + 1;
@@ -77,6 +77,17 @@ class DataFileReader {
     if (node["entropy_J_mol_K"]) s.entropy = sourced(node["entropy_J_mol_K"], 1.0);
     if (node["heat_capacity_J_mol_K"]) s.heat_capacity = sourced(node["heat_capacity_J_mol_K"], 1.0);
     if (node["temperature_range_K"]) read_range(node["temperature_range_K"], s);
+    if (node["precipitate_age"]) {
+      if (s.phase != Phase::solid) fail(node["precipitate_age"], "only a solid has a 'precipitate_age'");
+      const std::string age = scalar(node, "precipitate_age");
+      if (age == "fresh") {
+        s.precipitate_age = PrecipitateAge::fresh;
+      } else if (age == "aged") {
+        s.precipitate_age = PrecipitateAge::aged;
+      } else {
+        fail(node["precipitate_age"], fmt::format("'precipitate_age' is fresh or aged, not '{}'", age));
+      }
+    }
 
     if (s.is_basis || s.phase == Phase::liquid) {
       for (const char* key : {"reaction", "log10_K_298K", "temperature_function"})
@@ -230,6 +241,15 @@ void check_reaction_balance(const Database& database, const Species& s) {
 }
 
 }  // namespace
+
+const char* to_string(PrecipitateAge age) noexcept {
+  switch (age) {
+    case PrecipitateAge::fresh: return "fresh";
+    case PrecipitateAge::aged: return "aged";
+    case PrecipitateAge::any: return "any";
+  }
+  return "any";
+}
 
 Database::Database(std::vector<Species> species) : species_(std::move(species)) {}
 

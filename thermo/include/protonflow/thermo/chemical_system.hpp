@@ -18,6 +18,10 @@ struct SystemOptions {
   // Solids that may precipitate (database names, e.g. "gypsum"). Every other solid the basis
   // reaches is reported by its saturation index only.
   std::vector<std::string> allowed_solids;
+  // Which form of a solid that has a fresh and an aged form may precipitate. A neutraliser makes fresh,
+  // amorphous precipitates (the default); the aged or crystalline forms (gibbsite, zincite, ...) take
+  // part only when asked for. Solids with one form only (gypsum, calcite) are not affected.
+  PrecipitateAge precipitates = PrecipitateAge::fresh;
   // Gases held at a fixed partial pressure (a liquid open to air or to a gas of known composition);
   // the pressures are given with each solve. The solution exchanges each with an unlimited reservoir.
   std::vector<std::string> open_gases;
@@ -52,6 +56,7 @@ struct PhaseSpecies {
   double reference_enthalpy = 0.0;  // J/mol at 298.15 K (NaN where the data cannot give it)
   double heat_capacity = 0.0;       // J/(mol K), constant
   bool allowed = false;  // solids: may precipitate; gases: takes part (open or in the gas phase)
+  PrecipitateAge age = PrecipitateAge::any;  // solids: fresh or aged form, or the only form
   std::size_t pivot = 0; // open gases: the basis solute whose mass balance the gas replaces
 };
 
