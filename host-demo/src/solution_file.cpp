@@ -20,7 +20,7 @@ constexpr std::array<std::string_view, 1> top_level_keys{"solution"};
 constexpr std::array<std::string_view, 12> solution_keys{
     "name",       "temperature", "pressure",  "activity_model", "amounts_as", "water_mass",
     "components", "may_precipitate", "open_to", "gas_phase",   "enthalpy", "precipitates"};
-constexpr std::array<std::string_view, 3> activity_model_names{"davies", "b-dot", "ideal"};
+constexpr std::array<std::string_view, 4> activity_model_names{"davies", "b-dot", "ideal", "pitzer"};
 constexpr std::array<std::string_view, 3> basis_names{"molality", "moles", "mass_fraction"};
 
 SourcePosition position_of(const std::string& file, const YAML::Mark& mark) {
@@ -193,15 +193,9 @@ std::vector<ComponentEntry> read_components(const std::string& file, const Entry
   return components;
 }
 
-YAML::Node load_yaml(const std::string& file) {
-  std::ifstream stream(file);
-  if (!stream) {
-    throw InputError(SourcePosition{file, 0, 0}, "cannot open the file");
-  }
-  std::ostringstream text;
-  text << stream.rdbuf();
+YAML::Node load_yaml(const std::string& text, const std::string& file) {
   try {
-    return YAML::Load(text.str());
+    return YAML::Load(text);
   } catch (const YAML::ParserException& error) {
     throw InputError(position_of(file, error.mark), fmt::format("invalid YAML: {}", error.msg));
   }
@@ -223,12 +217,23 @@ std::string_view to_string(thermo::ActivityModelKind kind) noexcept {
     case thermo::ActivityModelKind::davies: return "davies";
     case thermo::ActivityModelKind::b_dot: return "b-dot";
     case thermo::ActivityModelKind::ideal: return "ideal";
+    case thermo::ActivityModelKind::pitzer: return "pitzer";
   }
   return "?";
 }
 
 SolutionInput read_solution_file(const std::string& file, const UnitConverter& units) {
-  const YAML::Node document = load_yaml(file);
+  std::ifstream stream(file);
+  if (!stream) {
+    throw InputError(SourcePosition{file, 0, 0}, "cannot open the file");
+  }
+  std::ostringstream text;
+  text << stream.rdbuf();
+  return parse_solution(text.str(), file, units);
+}
+
+SolutionInput parse_solution(const std::string& text, const std::string& file, const UnitConverter& units) {
+  const YAML::Node document = load_yaml(text, file);
   const SourcePosition file_start{file, 1, 1};
   if (!document.IsMap()) {
     throw InputError(document.IsNull() ? file_start : position_of(file, document),
@@ -286,7 +291,8 @@ SolutionInput read_solution_file(const std::string& file, const UnitConverter& u
   if (const Entry* const model = find_entry(entries, "activity_model")) {
     input.activity_model = read_choice(
         file, *model, activity_model_names,
-        std::array{thermo::ActivityModelKind::davies, thermo::ActivityModelKind::b_dot, thermo::ActivityModelKind::ideal});
+        std::array{thermo::ActivityModelKind::davies, thermo::ActivityModelKind::b_dot, thermo::ActivityModelKind::ideal,
+                   thermo::ActivityModelKind::pitzer});
   }
 
   const Entry& basis = require_entry(entries, "amounts_as", input.solution_at,

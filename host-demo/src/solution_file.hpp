@@ -64,4 +64,7 @@ struct SolutionInput {
 // Reads and checks the file. Throws InputError naming the file, line and column.
 SolutionInput read_solution_file(const std::string& file, const UnitConverter& units);
 
+// The same for a text already in memory, reported under the name `file`.
+SolutionInput parse_solution(const std::string& text, const std::string& file, const UnitConverter& units);
+
 }  // namespace protonflow::host

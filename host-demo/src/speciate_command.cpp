@@ -10,6 +10,8 @@
 #include "protonflow/thermo/database.hpp"
 #include "protonflow/thermo/equilibrium_solver.hpp"
 #include "protonflow/thermo/errors.hpp"
+#include "protonflow/thermo/pitzer_coverage.hpp"
+#include "protonflow/thermo/pitzer_enthalpy.hpp"
 #include "protonflow/thermo/stream_enthalpy.hpp"
 #include "protonflow/thermo/tableau.hpp"
 #include "quantity.hpp"
@@ -107,8 +109,10 @@ SpeciationReport make_report(const SolutionInput& input, const thermo::ChemicalS
     report.solutes.push_back(SoluteLabel{solute.name, solute.charge});
   }
   report.warnings = thermo::describe_warnings(speciation);
+  const auto excess = thermo::make_excess_enthalpy_model(system);
+  for (std::string& line : thermo::describe_pitzer_coverage(system, speciation)) report.warnings.push_back(std::move(line));
   try {
-    report.enthalpy = thermo::state_enthalpy(system, speciation);
+    report.enthalpy = thermo::state_enthalpy(system, speciation, excess.get());
   } catch (const thermo::ThermoError& error) {
     report.enthalpy_unavailable = error.what();
   }
@@ -167,7 +171,8 @@ int speciate(const SpeciateOptions& options, std::ostream& out, std::ostream& er
     thermo::EquilibriumSolver solver(system, solver_options);
     thermo::Speciation speciation;
     if (input.enthalpy) {
-      thermo::solve_at_enthalpy(solver, *input.enthalpy, input.pressure, amounts, pressures, speciation);
+      const auto excess = thermo::make_excess_enthalpy_model(system);
+      thermo::solve_at_enthalpy(solver, *input.enthalpy, input.pressure, amounts, pressures, speciation, excess.get());
     } else {
       solver.solve(input.temperature, input.pressure, amounts, pressures, speciation);
     }

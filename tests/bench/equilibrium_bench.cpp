@@ -26,9 +26,9 @@ const Database& database() {
 }
 
 // One component per element total; the proton balance follows from charge.
-ChemicalSystem benchmark_system() {
+ChemicalSystem benchmark_system(ActivityModelKind model = ActivityModelKind::davies) {
   SystemOptions options;
-  options.activity = ActivityModelKind::davies;
+  options.activity = model;
   options.secondary_species = {"OH^-", "HSO4^-", "HCO3^-", "CO2(aq)", "NH3(aq)", "CaSO4(aq)", "NaSO4^-", "CaCO3(aq)"};
   return ChemicalSystem(database(), {"H2O", "NaOH", "HCl", "H2SO4", "CO2", "NH3", "Ca(OH)2"}, options);
 }
@@ -53,9 +53,9 @@ double median(std::vector<double> values) {
 // 10,000 cases: each solved cold, then again warm after a 1 % change of every total (a flowsheet
 // iteration's typical step). Each solve is timed on its own; medians, the convergence rate and the
 // share of cases with a solid are reported as counters.
-void cold_and_warm_10000_cases(benchmark::State& state, const ChemicalSystem& system, const std::vector<double>& pressures) {
+void cold_and_warm_10000_cases(benchmark::State& state, const ChemicalSystem& system, const std::vector<double>& pressures,
+                               const std::vector<std::vector<double>>& cases = draw_cases(10000)) {
   EquilibriumSolver solver(system);
-  const auto cases = draw_cases(10000);
   Speciation out;
   for (auto _ : state) {
     std::vector<double> cold_us, warm_us;
@@ -109,6 +109,44 @@ void speciation_warm_nearby(benchmark::State& state) {
   }
 }
 BENCHMARK(speciation_warm_nearby)->Unit(benchmark::kMicrosecond);
+// Fixed iteration counts, for instruction counts under callgrind (docs/performance.md): the
+// difference between the two runs is 1000 warm solves, set-up and the first cold solve cancel.
+BENCHMARK(speciation_warm_nearby)->Iterations(10)->Unit(benchmark::kMicrosecond);
+BENCHMARK(speciation_warm_nearby)->Iterations(1010)->Unit(benchmark::kMicrosecond);
+
+// The same steady warm solving with each activity model, in the benchmark's dilute solution and in
+// a concentrated brine (3 mol/kg NaCl with sulfate, carbonate, ammonia and calcium; I ≈ 3.5 mol/kg,
+// beyond Davies' range, which the result warns of), where the activity terms dominate the
+// Jacobian. Another activity model is one more pair of lines here.
+void speciation_warm_nearby_with(benchmark::State& state, ActivityModelKind model, bool brine) {
+  const ChemicalSystem system = benchmark_system(model);
+  EquilibriumSolver solver(system);
+  const std::vector<double> base = brine ? std::vector<double>{1.0 / constants::water_molar_mass, 3.0, 3.2, 0.3, 0.05, 0.1, 0.01}
+                                         : draw_cases(1).front();
+  auto nearby = base;
+  for (std::size_t c = 1; c < nearby.size(); ++c) nearby[c] *= 1.01;
+  Speciation out;
+  solver.solve(298.15, constants::standard_atmosphere, base, out);
+  bool flip = false;
+  for (auto _ : state) {
+    solver.solve(298.15, constants::standard_atmosphere, flip ? base : nearby, out);
+    flip = !flip;
+    benchmark::DoNotOptimize(out.ph);
+  }
+  state.counters["newton_iterations"] = static_cast<double>(out.iterations);
+}
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, ideal, ActivityModelKind::ideal, false)->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, b_dot, ActivityModelKind::b_dot, false)->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_davies, ActivityModelKind::davies, true)->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_b_dot, ActivityModelKind::b_dot, true)->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, ideal, ActivityModelKind::ideal, false)->Iterations(10);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, ideal, ActivityModelKind::ideal, false)->Iterations(1010);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, b_dot, ActivityModelKind::b_dot, false)->Iterations(10);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, b_dot, ActivityModelKind::b_dot, false)->Iterations(1010);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_davies, ActivityModelKind::davies, true)->Iterations(10);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_davies, ActivityModelKind::davies, true)->Iterations(1010);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_b_dot, ActivityModelKind::b_dot, true)->Iterations(10);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_b_dot, ActivityModelKind::b_dot, true)->Iterations(1010);
 
 // Cold solving through the drawn cases.
 void speciation_cold(benchmark::State& state) {
@@ -124,6 +162,8 @@ void speciation_cold(benchmark::State& state) {
   }
 }
 BENCHMARK(speciation_cold)->Unit(benchmark::kMicrosecond);
+BENCHMARK(speciation_cold)->Iterations(10)->Unit(benchmark::kMicrosecond);
+BENCHMARK(speciation_cold)->Iterations(210)->Unit(benchmark::kMicrosecond);
 
 // The same system with calcite and gypsum allowed to precipitate and CO2 open to air (42 Pa, about
 // 415 ppm at 1 atm: the atmosphere's CO2 around 2021, NOAA Mauna Loa annual mean, from memory).
@@ -158,6 +198,38 @@ void adiabatic_solve(benchmark::State& state) {
   }
 }
 BENCHMARK(adiabatic_solve)->Unit(benchmark::kMicrosecond);
+
+// The Pitzer model on the same benchmark system (the same species, ion pairs included, so that
+// the times compare with Davies' above), and on a concentrated brine: NaCl, KCl, CaCl2, MgSO4 and
+// HCl each log-uniform in 0.05…1.5 mol/kg (I about 0.5 to 10 mol/kg, median about 4), the ion pairs
+// the parameters fold left out.
+ChemicalSystem pitzer_benchmark_system() {
+  SystemOptions options;
+  options.activity = ActivityModelKind::pitzer;
+  options.secondary_species = {"OH^-", "HSO4^-", "HCO3^-", "CO2(aq)", "NH3(aq)", "CaSO4(aq)", "NaSO4^-", "CaCO3(aq)"};
+  return ChemicalSystem(database(), {"H2O", "NaOH", "HCl", "H2SO4", "CO2", "NH3", "Ca(OH)2"}, options);
+}
+
+void pitzer_speciation_10000_cases(benchmark::State& state) {
+  cold_and_warm_10000_cases(state, pitzer_benchmark_system(), {});
+}
+BENCHMARK(pitzer_speciation_10000_cases)->Iterations(1)->Unit(benchmark::kMillisecond);
+
+void pitzer_brine_10000_cases(benchmark::State& state) {
+  SystemOptions options;
+  options.activity = ActivityModelKind::pitzer;
+  const ChemicalSystem system(database(), {"H2O", "NaCl", "KCl", "CaCl2", "MgSO4", "HCl"}, options);
+  std::mt19937_64 random(20261201);
+  std::uniform_real_distribution<double> exponent(std::log10(0.05), std::log10(1.5));
+  std::vector<std::vector<double>> cases;
+  for (int k = 0; k < 10000; ++k) {
+    std::vector<double> amounts{1.0 / constants::water_molar_mass};
+    for (int c = 0; c < 5; ++c) amounts.push_back(std::pow(10.0, exponent(random)));
+    cases.push_back(std::move(amounts));
+  }
+  cold_and_warm_10000_cases(state, system, {}, cases);
+}
+BENCHMARK(pitzer_brine_10000_cases)->Iterations(1)->Unit(benchmark::kMillisecond);
 
 }  // namespace
 

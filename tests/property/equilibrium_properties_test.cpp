@@ -326,3 +326,73 @@ TEST_CASE("open to a gas at a fixed partial pressure, every case converges with 
     assert_balances_close(s);
   });
 }
+
+namespace {
+
+// Brines of the Pitzer model: chlorides and sulfates (and their acids), ionic strength up to 6 mol/kg.
+const std::vector<std::pair<std::string, double>> brine_pool{
+    // component, ionic strength it brings per mol/kg if fully dissociated
+    {"NaCl", 1.0}, {"KCl", 1.0}, {"CaCl2", 3.0}, {"MgCl2", 3.0}, {"Na2SO4", 3.0},
+    {"K2SO4", 3.0}, {"MgSO4", 4.0}, {"HCl", 1.0}, {"H2SO4", 3.0}};
+
+rc::Gen<Case> random_brine() {
+  // full size from the first case (see random_case_from): concentrated brines as likely as dilute ones
+  return rc::gen::resize(100, rc::gen::apply(
+      [](int t, int target, std::vector<int> picks, std::vector<int> weights) {
+        Case c{t / 10000.0, ActivityModelKind::pitzer, {}};
+        double strength = 0.0;
+        for (std::size_t i = 0; i < picks.size(); ++i) {
+          const auto& [name, per_molal] = brine_pool[static_cast<std::size_t>(picks[i])];
+          if (std::any_of(c.recipe.begin(), c.recipe.end(), [&](const auto& r) { return r.first == name; })) continue;
+          c.recipe.emplace_back(name, weights[i] / 1000.0);
+          strength += per_molal * weights[i] / 1000.0;
+        }
+        // scale to a nominal ionic strength between 0.001 and 6 mol/kg, uniform in log10
+        const double nominal = std::pow(10.0, -3.0 + 3.7781512504 * target / 10000.0);
+        for (auto& r : c.recipe) r.second *= nominal / strength;
+        return c;
+      },
+      rc::gen::inRange(0, 10001), rc::gen::inRange(0, 10001),
+      rc::gen::container<std::vector<int>>(4, rc::gen::inRange(0, static_cast<int>(brine_pool.size()))),
+      rc::gen::container<std::vector<int>>(4, rc::gen::inRange(1, 1001))));
+}
+
+}  // namespace
+
+TEST_CASE("random brines to I = 6 mol/kg with the Pitzer model converge, balance and obey Gibbs-Duhem") {
+  rc::prop("converged with closed balances; Gibbs-Duhem holds at the answer to round-off", [] {
+    const Case c = *random_brine();
+    Solved s = [&] {
+      try {
+        return solve_case(c);
+      } catch (const ConvergenceError& e) {
+        // a typed error with its residuals is the only acceptable failure, and none is expected here
+        RC_FAIL(std::string("not converged: ") + e.what());
+      }
+    }();
+    RC_CLASSIFY(s.speciation.ionic_strength > 1.0, "I above 1 mol/kg");
+    RC_CLASSIFY(s.speciation.ionic_strength > 3.0, "I above 3 mol/kg");
+    assert_balances_close(s);
+    RC_ASSERT(s.speciation.ionic_strength <= 6.5);
+    // Gibbs–Duhem at the answer: (1/M_w) ∂ln a_w/∂m_k + 1 + Σ_i m_i ∂ln γ_i/∂m_k = 0 for every k.
+    SoluteProperties p;
+    for (const Solute& solute : s.system.solutes()) {
+      p.charge.push_back(solute.charge);
+      p.ion_size_angstrom.push_back(solute.ion_size_angstrom);
+      p.name.push_back(solute.name);
+    }
+    const auto model = make_activity_model(ActivityModelKind::pitzer, p);
+    const std::size_t n = p.charge.size();
+    ActivityEvaluation at(n);
+    model->evaluate(s.speciation.temperature, s.speciation.pressure, s.speciation.molality, at);
+    for (std::size_t k = 0; k < n; ++k) {
+      double sum = at.d_ln_water_activity_d_molality[k] / constants::water_molar_mass + 1.0;
+      double scale = 1.0;
+      for (std::size_t i = 0; i < n; ++i) {
+        sum += s.speciation.molality[i] * at.d_ln_gamma_d_molality[i * n + k];
+        scale += std::abs(s.speciation.molality[i] * at.d_ln_gamma_d_molality[i * n + k]);
+      }
+      RC_ASSERT(std::abs(sum) <= 1e-12 * scale);
+    }
+  });
+}

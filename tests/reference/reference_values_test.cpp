@@ -24,3 +24,19 @@ TEST_CASE("Henderson-Hasselbalch with activity: pH = pKa + log10(γ(A^-)/γ(HA))
   const double pka = formation_log_k("CH3COOH(aq)");
   CHECK(r.speciation.ph == Approx(pka + r.log10_gamma("CH3COO^-") - r.log10_gamma("CH3COOH(aq)")).margin(1e-3));
 }
+
+TEST_CASE("gypsum dissolves more in NaCl brine, as Marshall & Slusher 1966 measured (Pitzer)") {
+  // Marshall & Slusher 1966, J. Phys. Chem. 70, 4015 (from memory): at 25 °C gypsum's solubility
+  // rises steeply with NaCl, to roughly three times its value in water at 2–3 mol/kg NaCl, through a
+  // broad maximum; the dilute-solution models cannot reach that far.
+  using protonflow::thermo::ActivityModelKind;
+  const double water = gypsum_solubility(0.0, ActivityModelKind::pitzer);
+  const double half = gypsum_solubility(0.5, ActivityModelKind::pitzer);
+  const double one = gypsum_solubility(1.0, ActivityModelKind::pitzer);
+  const double three = gypsum_solubility(3.0, ActivityModelKind::pitzer);
+  CHECK(water < half);
+  CHECK(half < one);
+  CHECK(one < three);
+  CHECK(three / water > 2.5);
+  CHECK(three / water < 4.5);
+}

@@ -120,3 +120,22 @@ double mean_activity_coefficient(const std::string& salt, const std::string& cat
 }
 
 }  // namespace protonflow::reference
+
+namespace protonflow::reference {
+
+double gypsum_solubility(double nacl_molality, thermo::ActivityModelKind model) {
+  constexpr double gypsum_fed = 0.2;  // mol, several times what dissolves
+  const std::vector<std::string> components{"H2O", "NaCl", "CaSO4.2H2O"};
+  const std::vector<double> amounts{1.0 / thermo::constants::water_molar_mass, nacl_molality, gypsum_fed};
+  thermo::SystemOptions options;
+  options.activity = model;
+  options.allowed_solids = {"gypsum"};
+  const thermo::ChemicalSystem system(bundled_database(), components, options);
+  thermo::EquilibriumSolver solver(system);
+  const thermo::Speciation s = solver.solve(298.15, thermo::constants::standard_atmosphere, amounts);
+  std::size_t gypsum = 0;
+  while (system.solids()[gypsum].name != "gypsum") ++gypsum;
+  return (gypsum_fed - s.solid_amount[gypsum]) / s.water_mass;
+}
+
+}  // namespace protonflow::reference

@@ -54,3 +54,11 @@ double mean_activity_coefficient(const std::string& salt, const std::string& cat
                                  const std::string& anion, int anions, double molality, thermo::ActivityModelKind model);
 
 }  // namespace protonflow::reference
+
+namespace protonflow::reference {
+
+// Solubility of gypsum (mol CaSO4 per kg of water) in NaCl of the given molality at 25 °C: excess
+// gypsum equilibrated with the solution, dissolved calcium over the water mass.
+double gypsum_solubility(double nacl_molality, thermo::ActivityModelKind model);
+
+}  // namespace protonflow::reference

@@ -1,10 +1,17 @@
 #include <catch2/catch.hpp>
 
+#include <boost/math/quadrature/exp_sinh.hpp>
+
 #include <cmath>
+#include <filesystem>
+#include <fstream>
+#include <string>
 #include <vector>
 
 #include "protonflow/thermo/activity_model.hpp"
+#include "protonflow/thermo/activity_pitzer.hpp"
 #include "protonflow/thermo/constants.hpp"
+#include "protonflow/thermo/errors.hpp"
 #include "protonflow/thermo/water_properties.hpp"
 
 using namespace protonflow::thermo;
@@ -20,7 +27,28 @@ SoluteProperties mixture(bool equal_sizes) {
 }
 const std::vector<double> molality{0.01, 0.2, 0.05, 0.25, 0.03, 0.02};
 
-void check_derivatives(const ActivityModel& model) {
+// The same mixture with names, for the Pitzer model.
+SoluteProperties named_mixture() {
+  SoluteProperties p = mixture(false);
+  p.name = {"H^+", "Na^+", "Ca^2+", "Cl^-", "SO4^2-", "CO2(aq)"};
+  return p;
+}
+
+// A parameter set exercising every kind of term, ζ and λ_nn included (values arbitrary in size).
+PitzerParameters every_term() {
+  PitzerParameters p;
+  p.binary.push_back({"Na^+", "Cl^-", {0.08, 1e-3, 0}, {0.27, 1e-3, 0}, {}, {0.0013, -1e-4, 0}});
+  p.binary.push_back({"Ca^2+", "SO4^2-", {0.2, 0, 0}, {3.2, 0, 0}, {-54, 0, 0}, {}, 1.4, 12.0});
+  p.binary.push_back({"H^+", "SO4^2-", {0.03, 0, 0}, {}, {}, {0.044, 0, 0}});
+  p.theta.push_back({"Na^+", "Ca^2+", {0.07, 0, 0}});
+  p.psi.push_back({"Na^+", "Ca^2+", "Cl^-", {-0.007, 0, 0}});
+  p.lambda.push_back({"CO2(aq)", "Na^+", {0.1, 0, 0}});
+  p.lambda.push_back({"CO2(aq)", "CO2(aq)", {0.05, 0, 0}});
+  p.zeta.push_back({"CO2(aq)", "Na^+", "Cl^-", {-0.02, 0, 0}});
+  return p;
+}
+
+void check_derivatives(const ActivityModel& model, const std::vector<double>& molality = ::molality) {
   const std::size_t n = molality.size();
   ActivityEvaluation at(n), plus(n), minus(n);
   model.evaluate(298.15, 1e5, molality, at);
@@ -43,7 +71,7 @@ void check_derivatives(const ActivityModel& model) {
 }
 
 // Gibbs–Duhem: (1/M_w) ∂ln a_w/∂m_k + Σ_i m_i ∂ln(m_i γ_i)/∂m_k = 0 for every k.
-void check_gibbs_duhem(const ActivityModel& model) {
+void check_gibbs_duhem(const ActivityModel& model, const std::vector<double>& molality = ::molality) {
   const std::size_t n = molality.size();
   ActivityEvaluation at(n);
   model.evaluate(298.15, 1e5, molality, at);
@@ -61,6 +89,12 @@ TEST_CASE("analytic activity derivatives match finite differences") {
   check_derivatives(*make_davies_model(mixture(false)));
   check_derivatives(*make_b_dot_model(mixture(false)));
   check_derivatives(*make_ideal_model(mixture(false)));
+  check_derivatives(*make_pitzer_model(named_mixture()));
+  check_derivatives(*make_pitzer_model(named_mixture(), every_term()));
+  // a brine near the model's limit, I ≈ 6 mol/kg
+  const std::vector<double> brine{0.3, 2.5, 0.8, 4.0, 0.4, 0.05};
+  check_derivatives(*make_pitzer_model(named_mixture()), brine);
+  check_derivatives(*make_pitzer_model(named_mixture(), every_term()), brine);
 }
 
 TEST_CASE("water activity obeys Gibbs-Duhem where the model has an excess Gibbs energy") {
@@ -68,22 +102,87 @@ TEST_CASE("water activity obeys Gibbs-Duhem where the model has an excess Gibbs 
   // direction of composition.
   check_gibbs_duhem(*make_davies_model(mixture(false)));
   check_gibbs_duhem(*make_ideal_model(mixture(false)));
+  check_gibbs_duhem(*make_pitzer_model(named_mixture()));
+  check_gibbs_duhem(*make_pitzer_model(named_mixture(), every_term()), {0.3, 2.5, 0.8, 4.0, 0.4, 0.05});
 }
 
-TEST_CASE("B-dot water activity obeys Gibbs-Duhem along the solution's own composition ratios") {
-  // B-dot with per-ion sizes and an uncharged ḃ I term has no excess Gibbs energy; its a_w is
-  // integrated along the ray m = λ m° (docs/activity.md), where Gibbs–Duhem must hold:
-  // (1/M_w) Σ_k m_k ∂ln a_w/∂m_k + Σ_k m_k + Σ_i Σ_k m_i m_k ∂ln γ_i/∂m_k = 0.
-  const auto model = make_b_dot_model(mixture(false));
-  const std::size_t n = molality.size();
-  ActivityEvaluation at(n);
-  model->evaluate(298.15, 1e5, molality, at);
-  double sum = 0.0;
-  for (std::size_t k = 0; k < n; ++k) {
-    sum += molality[k] * (at.d_ln_water_activity_d_molality[k] / constants::water_molar_mass + 1.0);
-    for (std::size_t i = 0; i < n; ++i) sum += molality[i] * molality[k] * at.d_ln_gamma_d_molality[i * n + k];
+TEST_CASE("Pitzer water activity is the osmotic coefficient of the same excess Gibbs energy") {
+  // Σ m (φ − 1) = Σ m_k ln γ_k − G^ex/(w_w R T) (Pitzer 1991, ch. 3): checked against a finite
+  // difference of G^ex in the mass of water, −∂G^ex/∂n_w = −M_w ∂(w g)/∂w at fixed amounts.
+  const PitzerModel model(named_mixture(), every_term());
+  const std::vector<double> m{0.3, 2.5, 0.8, 4.0, 0.4, 0.05};
+  ActivityEvaluation at(m.size());
+  model.evaluate(298.15, 1e5, m, at);
+  const auto total_g = [&](double w) {
+    std::vector<double> scaled(m.size());
+    for (std::size_t k = 0; k < m.size(); ++k) scaled[k] = m[k] / w;
+    return w * model.excess_gibbs_energy(298.15, 1e5, scaled);
+  };
+  const double h = 1e-5;
+  const double d_g_d_w = (total_g(1.0 + h) - total_g(1.0 - h)) / (2 * h);
+  double total = 0.0;
+  for (double x : m) total += x;
+  // ln a_w = ln a_w(ideal) + M_w ∂(w g)/∂w
+  CHECK(at.ln_water_activity == Approx(-constants::water_molar_mass * total + constants::water_molar_mass * d_g_d_w).epsilon(1e-7));
+}
+
+TEST_CASE("Pitzer relative partial molal enthalpies are the derivatives of the relative enthalpy") {
+  // L̄_i = ∂L/∂n_i at constant water (per kg: ∂(L/w)/∂m_i), checked by central differences of the
+  // model's own L; and Euler: Σ m_i L̄_i + L̄_w / M_w = L/w.
+  const PitzerModel model(named_mixture(), every_term());
+  const std::vector<double> m{0.3, 2.5, 0.8, 4.0, 0.4, 0.05};
+  std::vector<double> partial(m.size());
+  const double water = model.relative_partial_enthalpies(310.0, 1e5, m, partial);
+  double euler = water / constants::water_molar_mass;
+  for (std::size_t k = 0; k < m.size(); ++k) {
+    auto up = m, down = m;
+    const double h = 1e-4 * m[k];
+    up[k] += h;
+    down[k] -= h;
+    const double numeric = (model.relative_enthalpy(310.0, 1e5, up) - model.relative_enthalpy(310.0, 1e5, down)) / (2 * h);
+    INFO("solute " << k);
+    CHECK(partial[k] == Approx(numeric).epsilon(1e-5).margin(1e-6));
+    euler += m[k] * partial[k];
   }
-  CHECK(sum == Approx(0.0).margin(1e-12));
+  CHECK(euler == Approx(model.relative_enthalpy(310.0, 1e5, m)).epsilon(1e-10));
+}
+
+TEST_CASE("Pitzer model names the species it has no parameters for") {
+  SoluteProperties p;
+  p.charge = {1, -1, 1, 0};
+  p.ion_size_angstrom = {4, 3, 4, 0};
+  p.name = {"Na^+", "Cl^-", "Cs^+", "N2(aq)"};
+  const PitzerModel model(p, bundled_pitzer_parameters());
+  CHECK(model.species_without_parameters() == std::vector<std::string>{"Cs^+", "N2(aq)"});
+  // Cs^+ keeps the Debye–Hückel term alone: with no Cs–Cl parameters ln γ(Cs^+) = f^γ + Cφ terms of others.
+  ActivityEvaluation out(4);
+  model.evaluate(298.15, 1e5, std::vector<double>{1e-3, 1e-3, 1e-9, 1e-9}, out);
+  CHECK(out.ln_gamma[3] == Approx(0.0).margin(1e-12));
+  SoluteProperties unnamed = mixture(false);
+  CHECK_THROWS_AS(PitzerModel(unnamed, bundled_pitzer_parameters()), ThermoError);
+}
+
+TEST_CASE("Pitzer 1975 J(x) approximation against its defining integral") {
+  // J(x) = (1/x) ∫₀^∞ [1 + q + q²/2 − e^q] y² dy, q = −(x/y) e^−y (Pitzer 1975, J. Solution Chem. 4,
+  // 249, eq. 43), by Boost's exp-sinh quadrature; Pitzer gives his eq. 47 as good to about 1 %.
+  boost::math::quadrature::exp_sinh<double> integrator;
+  for (const double x : {0.5, 1.0, 2.0, 5.0, 10.0, 50.0, 100.0}) {
+    const auto integrand = [x](double y) {
+      const double q = -(x / y) * std::exp(-y);
+      // [1 + q + q²/2 − e^q] y²: the series −q³/6 (1 + q/4) where q is small; elsewhere term by term
+      // with q y = −x e^−y, so that nothing overflows as y → 0
+      if (std::abs(q) < 1e-3) return -(q * q * q / 6.0) * (1.0 + q / 4.0) * y * y;
+      return y * y * (1.0 - std::exp(q)) - x * y * std::exp(-y) + 0.5 * x * x * std::exp(-2.0 * y);
+    };
+    const double exact = integrator.integrate(integrand) / x;
+    INFO("x = " << x);
+    CHECK(pitzer_1975_j(x)[0] == Approx(exact).epsilon(0.012));
+    // derivatives of the approximation by central differences
+    const double h = 1e-4 * x;
+    CHECK(pitzer_1975_j(x)[1] == Approx((pitzer_1975_j(x + h)[0] - pitzer_1975_j(x - h)[0]) / (2 * h)).epsilon(1e-6));
+    CHECK(pitzer_1975_j(x)[2] == Approx((pitzer_1975_j(x + h)[1] - pitzer_1975_j(x - h)[1]) / (2 * h)).epsilon(1e-5));
+  }
+  CHECK(pitzer_1975_j(0.0)[0] == 0.0);
 }
 
 TEST_CASE("every model tends to the Debye-Hückel limiting law") {
@@ -111,4 +210,34 @@ TEST_CASE("Debye-Hückel A and B at 25 °C") {
   // A rises with temperature: 0.4918 at 0 °C and 0.5998 at 100 °C (same table, from memory).
   CHECK(debye_huckel_parameters(273.15, 101325.0).a == Approx(0.4918).epsilon(3e-3));
   CHECK(debye_huckel_parameters(373.15, 101325.0).a == Approx(0.5998).epsilon(5e-3));
+}
+
+TEST_CASE("the Pitzer parameter file: bundled set read, bad entries refused with file, line and column") {
+  const PitzerParameters& bundled = bundled_pitzer_parameters();
+  CHECK(bundled.binary.size() >= 30);
+  CHECK(bundled.maximum_ionic_strength == 6.0);
+  const auto directory = std::filesystem::temp_directory_path() / "protonflow-pitzer-parameters";
+  std::filesystem::create_directories(directory);
+  const auto refused = [&](const std::string& name, const std::string& text, int line, int column, const std::string& what) {
+    const auto file = directory / (name + ".yaml");
+    std::ofstream(file) << text;
+    try {
+      load_pitzer_parameters(file);
+      FAIL("accepted " << name);
+    } catch (const DataError& e) {
+      INFO(e.what());
+      CHECK(e.line() == line);
+      CHECK(e.column() == column);
+      CHECK_THAT(e.what(), Catch::Contains(what));
+    }
+  };
+  refused("old-notation", "binary:\n  - species: [Na+, Cl^-]\n    beta0: {value: 0.0765, source: x}\n", 2, 15, "write 'Na^+'");
+  refused("no-source", "binary:\n  - species: [Na^+, Cl^-]\n    beta0: {value: 0.0765}\n", 3, 12, "'value' and 'source'");
+  refused("anion-first", "binary:\n  - species: [Cl^-, Na^+]\n    beta0: {value: 0.0765, source: x}\n", 2, 14, "a cation then an anion");
+  refused("unknown-key", "binary:\n  - species: [Na^+, Cl^-]\n    beta3: {value: 1, source: x}\n", 3, 5, "unknown key 'beta3'");
+  refused("twice", "theta:\n  - {species: [Na^+, K^+], theta: {value: 1, source: x}}\n  - {species: [K^+, Na^+], theta: {value: 1, source: x}}\n",
+          3, 5, "theta of K^+ Na^+ is listed twice");
+  refused("lambda-ion-first", "lambda:\n  - {species: [Na^+, CO2(aq)], lambda: {value: 1, source: x}}\n", 2, 15, "a neutral species first");
+  refused("psi-signs", "psi:\n  - {species: [Na^+, Cl^-, K^+], psi: {value: 1, source: x}}\n", 2, 15, "two different ions of one sign");
+  std::filesystem::remove_all(directory);
 }

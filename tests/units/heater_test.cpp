@@ -105,7 +105,7 @@ TEST_CASE("heater: the module sits in the host's built-in directory and describe
   CHECK(parameter("duty").default_number == 0.0);
   CHECK(parameter("pressure_drop").unit == "Pa");
   CHECK(parameter("pressure_drop").lower == 0.0);
-  CHECK(parameter("activity_model").choices == std::vector<std::string>{"davies", "b-dot"});
+  CHECK(parameter("activity_model").choices == std::vector<std::string>{"davies", "b-dot", "pitzer"});
   REQUIRE(info->results.size() == 6);
   const std::vector<std::pair<std::string, std::string>> results{{"duty", "W"},    {"outlet_temperature", "K"},
                                                                  {"outlet_ph", "1"}, {"inlet_ph", "1"},

@@ -2,6 +2,7 @@
 #include <algorithm>
 
 #include "protonflow/thermo/activity_model.hpp"
+#include "protonflow/thermo/activity_pitzer.hpp"
 #include "protonflow/thermo/constants.hpp"
 
 namespace protonflow::thermo {
@@ -44,6 +45,7 @@ std::unique_ptr<ActivityModel> make_activity_model(ActivityModelKind kind, Solut
     case ActivityModelKind::ideal: return make_ideal_model(std::move(solutes));
     case ActivityModelKind::davies: return make_davies_model(std::move(solutes));
     case ActivityModelKind::b_dot: return make_b_dot_model(std::move(solutes));
+    case ActivityModelKind::pitzer: return make_pitzer_model(std::move(solutes));
   }
   return make_davies_model(std::move(solutes));
 }

@@ -6,6 +6,7 @@
 #include <set>
 
 #include "protonflow/thermo/errors.hpp"
+#include "protonflow/thermo/pitzer_parameters.hpp"
 #include "protonflow/thermo/tableau.hpp"
 #include "species_enthalpy.hpp"
 
@@ -86,9 +87,14 @@ ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string
     return std::all_of(s.reaction.begin(), s.reaction.end(),
                        [&](const auto& term) { return term.first == "H2O" || basis_position(term.first) >= 0; });
   };
+  // The Pitzer parameters carry some ion pairs in their binary terms; those pairs stay out.
+  std::set<std::string, std::less<>> folded;
+  if (options_.activity == ActivityModelKind::pitzer)
+    for (const std::string& name : bundled_pitzer_parameters().folded_ion_pairs) folded.insert(name);
   if (options_.secondary_species.empty()) {
     for (const Species& s : database.species())
-      if (!s.is_basis && s.phase == Phase::aqueous && reachable(s)) add_solute(s);
+      if (!s.is_basis && s.phase == Phase::aqueous && reachable(s) && !folded.count(s.name))
+        add_solute(s);
   } else {
     // OH^- belongs to every aqueous system: water's own ionization is never optional.
     std::vector<std::string> wanted = options_.secondary_species;

@@ -7,6 +7,7 @@
 #include <cmath>
 #include <cstdlib>
 #include <fmt/format.h>
+#include <optional>
 #include <set>
 #include <unordered_map>
 
@@ -20,17 +21,26 @@ namespace {
 // Reads one data file; every complaint carries the position of the node it is about.
 class DataFileReader {
  public:
-  explicit DataFileReader(std::string file) : file_(std::move(file)) {}
+  // Reads the file itself, or, where `text` is given, that text under the file's name.
+  explicit DataFileReader(std::string file, std::optional<std::string> text = std::nullopt)
+      : file_(std::move(file)), text_(std::move(text)) {}
 
   std::vector<Species> read() {
-    YAML::Node root;
     try {
-      root = YAML::LoadFile(file_);
+      return read_document();
     } catch (const YAML::ParserException& e) {
       throw DataError(file_, e.mark.line + 1, e.mark.column + 1, e.msg);
     } catch (const YAML::BadFile&) {
       throw DataError(file_, 0, 0, "cannot open the file");
+    } catch (const YAML::Exception& e) {
+      // A node of the wrong kind where a name was expected (a list as a reaction's key, say).
+      throw DataError(file_, e.mark.line + 1, e.mark.column + 1, e.msg);
     }
+  }
+
+ private:
+  std::vector<Species> read_document() {
+    const YAML::Node root = text_ ? YAML::Load(*text_) : YAML::LoadFile(file_);
     if (!root.IsMap() || !root["species"] || !root["species"].IsSequence())
       fail(root, "a data file holds one key, 'species', with a list of species");
     check_keys(root, {"species"});
@@ -39,7 +49,6 @@ class DataFileReader {
     return species;
   }
 
- private:
   Species read_species(const YAML::Node& node) {
     if (!node.IsMap()) fail(node, "each species is a map of keys");
     check_keys(node, {"name", "formula", "phase", "basis", "ion_size_angstrom", "formation_enthalpy_kJ_mol",
@@ -218,6 +227,7 @@ class DataFileReader {
   }
 
   std::string file_;
+  std::optional<std::string> text_;
 };
 
 // A reaction must conserve every element and the charge: that catches typing errors in the data.
@@ -265,21 +275,11 @@ std::size_t Database::index_of(std::string_view name) const {
   throw ThermoError(ErrorKind::unknown_species, fmt::format("unknown species '{}'", name));
 }
 
-Database load_database(const std::filesystem::path& directory) {
-  if (!std::filesystem::is_directory(directory))
-    throw ThermoError(ErrorKind::bad_data, fmt::format("species data directory '{}' does not exist", directory.string()));
-  std::vector<std::filesystem::path> files;
-  for (const auto& entry : std::filesystem::directory_iterator(directory))
-    if (entry.path().extension() == ".yaml") files.push_back(entry.path());
-  std::sort(files.begin(), files.end());  // a stable species order, whatever the file system's
-  if (files.empty())
-    throw ThermoError(ErrorKind::bad_data, fmt::format("no *.yaml species data in '{}'", directory.string()));
+namespace {
 
-  std::vector<Species> all;
+// The checks across files: unique names, reactions from basis species that balance, water's ions.
+Database checked_database(std::vector<Species> all) {
   std::unordered_map<std::string, const Species*> seen;
-  for (const auto& file : files) {
-    for (Species& s : DataFileReader(file.string()).read()) all.push_back(std::move(s));
-  }
   for (const Species& s : all) {
     const auto [it, fresh] = seen.emplace(s.name, &s);
     if (!fresh)
@@ -292,6 +292,33 @@ Database load_database(const std::filesystem::path& directory) {
   if (!database.find("H2O") || !database.find("H^+") || !database.find("OH^-"))
     throw ThermoError(ErrorKind::bad_data, "the species data must define H2O, H^+ and OH^-");
   return database;
+}
+
+}  // namespace
+
+Database load_database(const std::filesystem::path& directory) {
+  if (!std::filesystem::is_directory(directory))
+    throw ThermoError(ErrorKind::bad_data, fmt::format("species data directory '{}' does not exist", directory.string()));
+  std::vector<std::filesystem::path> files;
+  for (const auto& entry : std::filesystem::directory_iterator(directory))
+    if (entry.path().extension() == ".yaml") files.push_back(entry.path());
+  std::sort(files.begin(), files.end());  // a stable species order, whatever the file system's
+  if (files.empty())
+    throw ThermoError(ErrorKind::bad_data, fmt::format("no *.yaml species data in '{}'", directory.string()));
+
+  std::vector<Species> all;
+  for (const auto& file : files) {
+    for (Species& s : DataFileReader(file.string()).read()) all.push_back(std::move(s));
+  }
+  return checked_database(std::move(all));
+}
+
+Database load_database(const std::vector<DataText>& texts) {
+  std::vector<Species> all;
+  for (const DataText& text : texts) {
+    for (Species& s : DataFileReader(text.file, text.text).read()) all.push_back(std::move(s));
+  }
+  return checked_database(std::move(all));
 }
 
 std::filesystem::path default_data_directory() {

@@ -1,6 +1,8 @@
 // The equations of the equilibrium problem, side by side with their Jacobian (docs/equilibrium.md).
 #include "equilibrium_solver_impl.hpp"
 
+#include "dense_linear_solver.hpp"
+
 #include "protonflow/thermo/constants.hpp"
 #include "protonflow/thermo/errors.hpp"
 
@@ -32,12 +34,15 @@ double EquilibriumSolver::Impl::phase_log_activity(const PhaseSpecies& p, double
 void EquilibriumSolver::Impl::phase_log_activity_gradient(const PhaseSpecies& p, double* g) const {
   const double* dg = evaluation.d_ln_gamma_d_molality.data();
   const double* dw = evaluation.d_ln_water_activity_d_molality.data();
-  for (std::size_t k = 0; k < n; ++k) {
-    double d = p.water_coefficient * dw[k];
-    for (std::size_t b = 0; b < nb; ++b)
-      if (p.stoichiometry[b] != 0.0) d += p.stoichiometry[b] * dg[b * n + k];
-    g[k] = d * molality[k] + (k < nb ? p.stoichiometry[k] : 0.0);
+  for (std::size_t k = 0; k < n; ++k) g[k] = p.water_coefficient * dw[k];
+  for (std::size_t b = 0; b < nb; ++b) {
+    const double nu = p.stoichiometry[b];
+    if (nu == 0.0) continue;
+    const double* dg_b = dg + b * n;
+    for (std::size_t k = 0; k < n; ++k) g[k] += nu * dg_b[k];
   }
+  for (std::size_t k = 0; k < n; ++k) g[k] *= molality[k];
+  for (std::size_t b = 0; b < nb; ++b) g[b] += p.stoichiometry[b];
 }
 
 // Rows, in order of the unknowns (docs/equilibrium.md):
@@ -78,14 +83,17 @@ void EquilibriumSolver::Impl::residual(const double* x, double* f) {
       held += (water ? phase[g].water_coefficient : phase[g].stoichiometry[b]) * phase_scale * x[phase_offset + g];
     return held;
   };
+  // Σ_i ν_ib m_i over the tableau's non-zero entries, for every basis species at once.
+  double* amount = basis_amount.data();
+  std::fill(amount, amount + nb, 0.0);
+  for (std::size_t i = 0; i < n; ++i)
+    for (const Term& t : terms[i]) amount[t.basis] += t.coefficient * molality[i];
   for (std::size_t b = 1; b < nb; ++b) {
     if (!active[b]) {
       f[b] = x[b] - inactive_log_molality;
       continue;
     }
-    double amount = 0.0;
-    for (std::size_t i = 0; i < n; ++i) amount += stoichiometry[i * nb + b] * molality[i];
-    f[b] = water_mass * amount + outside(b, false) - basis_total[b];
+    f[b] = water_mass * amount[b] + outside(b, false) - basis_total[b];
   }
   double charge_sum = 0.0, water_bound = 0.0;
   for (std::size_t i = 0; i < n; ++i) {
@@ -115,8 +123,22 @@ void EquilibriumSolver::Impl::residual(const double* x, double* f) {
 
 // ∂F/∂u, column k: ∂(ln γ_i)/∂u_k = (∂ln γ_i/∂m_k) m_k, and likewise for ln a_w.
 void EquilibriumSolver::Impl::jacobian(const double* x, SUNMatrix jm) {
+  // The first step of a warm solve keeps the LU of the previous answer's last Jacobian: evaluated
+  // within a converging step of that answer, at the same T, P and phase set, it is the Newton
+  // matrix there (docs/equilibrium.md, "Solving with KINSOL").
+  if (reuse_factorization) {
+    reuse_factorization = false;
+    detail::keep_factorization(jm);
+    return;
+  }
   evaluate_molalities(x);
-  double* data = SUNDenseMatrix_Data(jm);  // column-major, size × size; KINSOL zeroes it before each call
+  factorization_current = true;  // the linear solver factors this matrix next
+  factored_temperature = temperature;
+  factored_pressure = pressure;
+  std::copy(solid_present.begin(), solid_present.end(), factored_solid_present.begin());
+  factored_gas_phase_present = gas_phase_present;
+  double* data = detail::dense_jacobian_data(jm);  // column-major, size × size
+  std::fill(data, data + size * size, 0.0);
   const auto at = [&](std::size_t row, std::size_t column) -> double& { return data[column * size + row]; };
   const double* dg = evaluation.d_ln_gamma_d_molality.data();
   const double* dw = evaluation.d_ln_water_activity_d_molality.data();
@@ -128,15 +150,19 @@ void EquilibriumSolver::Impl::jacobian(const double* x, SUNMatrix jm) {
       at(i, i) = 1.0;
       continue;
     }
+    // row[k] = ∂(ln γ_i − Σ_b ν_ib ln γ_b − ν_iw ln a_w)/∂m_k, built from whole rows of ∂ln γ/∂m.
+    double* row = gradient.data();
+    const double* dg_i = dg + i * n;
+    const double nu_w = water_coefficient[i];
+    for (std::size_t k = 0; k < n; ++k) row[k] = dg_i[k] - nu_w * dw[k];
+    for (const Term& t : terms[i]) {
+      const double* dg_b = dg + t.basis * n;
+      const double nu = t.coefficient;
+      for (std::size_t k = 0; k < n; ++k) row[k] -= nu * dg_b[k];
+    }
+    for (std::size_t k = 0; k < n; ++k) at(i, k) = row[k] * molality[k];
     at(i, i) += 1.0;
     for (const Term& t : terms[i]) at(i, t.basis) -= t.coefficient;
-    const double* dg_i = dg + i * n;
-    for (std::size_t k = 0; k < n; ++k) {
-      if (molality[k] == 0.0) continue;
-      double d = dg_i[k] - water_coefficient[i] * dw[k];
-      for (const Term& t : terms[i]) d -= t.coefficient * dg[t.basis * n + k];
-      at(i, k) += d * molality[k];
-    }
   }
   for (std::size_t b = 1; b < nb; ++b)
     if (!active[b]) at(b, b) = 1.0;

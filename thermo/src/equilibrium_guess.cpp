@@ -26,7 +26,7 @@ void EquilibriumSolver::Impl::ideal_guess(double* x) {
   double ln_water_activity = 0.0;
   const int passes = system->options().activity == ActivityModelKind::ideal ? 1 : 3;
   for (int pass = 0; pass < passes; ++pass) {
-    guess_pass(x, ln_water_activity);
+    guess_pass(x, ln_water_activity, pass == 0);
     if (pass + 1 == passes) break;
     evaluate_molalities(x);
     std::copy(evaluation.ln_gamma.begin(), evaluation.ln_gamma.end(), guess_ln_gamma.begin());
@@ -34,7 +34,7 @@ void EquilibriumSolver::Impl::ideal_guess(double* x) {
   }
 }
 
-void EquilibriumSolver::Impl::guess_pass(double* x, double ln_water_activity) {
+void EquilibriumSolver::Impl::guess_pass(double* x, double ln_water_activity, bool first) {
   const double water_guess = water_total * constants::water_molar_mass;
   std::copy(stoichiometry.begin(), stoichiometry.end(), guess_stoichiometry.begin());
   // Conditional constants: ln m_i = ln K'_i + Σ_b ν_ib ln m_b with the γ and a_w of the last pass.
@@ -117,8 +117,11 @@ void EquilibriumSolver::Impl::guess_pass(double* x, double ln_water_activity) {
     swapped.push_back(fixed[f]);
     swapped_row.push_back(row[f]);
   }
+  // The first pass starts from the totals; a later one from the pass before, whose conditional
+  // constants differ from its own only by the activity corrections.
   for (std::size_t b = 0; b < nb; ++b)
-    guess_x[b] = !active[b] ? inactive_log_molality : b == 0 ? std::log(1e-7) : std::log(std::max(std::abs(guess_totals[b]), 1e-7));
+    if (first || !std::isfinite(guess_x[b]) || !active[b])
+      guess_x[b] = !active[b] ? inactive_log_molality : b == 0 ? std::log(1e-7) : std::log(std::max(std::abs(guess_totals[b]), 1e-7));
   // Swapped-out and absent basis species are not variables, but solutes built from them stay in.
   detail::GuessProblem problem{n, nb, guess_stoichiometry, guess_ln_k, std::span<const char>(guess_active.data(), n),
                                guess_totals, std::span<const char>(active.data(), n)};

@@ -5,7 +5,7 @@
 #include <cstdlib>
 #include <limits>
 
-#include "eigen_dense_linear_solver.hpp"
+#include "dense_linear_solver.hpp"
 #include "equilibrium_solver_impl.hpp"
 #include "protonflow/thermo/constants.hpp"
 #include "protonflow/thermo/errors.hpp"
@@ -64,6 +64,7 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
       guess_stoichiometry(n * nb),
       guess_ln_k(n),
       gradient(n),
+      basis_amount(nb),
       guess_active(n),
       previous_active(n, 0),
       terms(n) {
@@ -77,6 +78,7 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
   solid_scale.assign(allowed.size(), 1.0);
   solid_present.assign(allowed.size(), 0);
   previous_solid_present.assign(allowed.size(), 0);
+  factored_solid_present.assign(allowed.size(), 0);
   maximum_rounds = 4 * (allowed.size() + 1) + 8;
   tried_sets.reserve(maximum_rounds * (allowed.size() + 1));
   previous_u.assign(size, 0.0);
@@ -93,6 +95,7 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
       if (s.stoichiometry[b] != 0.0) terms[i].push_back({b, s.stoichiometry[b]});
     properties.charge.push_back(s.charge);
     properties.ion_size_angstrom.push_back(s.ion_size_angstrom);
+    properties.name.push_back(s.name);
   }
   activity = make_activity_model(chemical_system.options().activity, std::move(properties));
 
@@ -114,8 +117,8 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
   check_flag(KINSetNumMaxIters(kinsol, options.max_iterations), "KINSetNumMaxIters");
   check_flag(KINSetMaxSetupCalls(kinsol, 1), "KINSetMaxSetupCalls");  // exact Newton: a fresh Jacobian each step
   check_flag(KINSetMaxNewtonStep(kinsol, 20.0 * std::sqrt(static_cast<double>(size))), "KINSetMaxNewtonStep");
-  jacobian_matrix = check_created(SUNDenseMatrix(length, length, context), "SUNDenseMatrix");
-  linear_solver = check_created(detail::make_eigen_dense_linear_solver(context, length), "make_eigen_dense_linear_solver");
+  jacobian_matrix = check_created(detail::make_dense_jacobian(context, length), "make_dense_jacobian");
+  linear_solver = check_created(detail::make_dense_lu_solver(context, length), "make_dense_lu_solver");
   check_flag(KINSetLinearSolver(kinsol, linear_solver, jacobian_matrix), "KINSetLinearSolver");
   check_flag(KINSetJacFn(kinsol, jacobian_callback), "KINSetJacFn");
 }
@@ -166,7 +169,10 @@ int EquilibriumSolver::Impl::run_kinsol(int strategy) {
   }
   scale[n] = 1.0 / water_total;
   // Solve, then check the flag.
-  return KINSol(kinsol, u, strategy, u_scale, f_scale);
+  const int flag = KINSol(kinsol, u, strategy, u_scale, f_scale);
+  reuse_factorization = false;  // only ever for the first step of a warm solve
+  if (flag < 0) factorization_current = false;
+  return flag;
 }
 
 // KINSOL's success, or a step-size stop whose residual is close enough to the tolerance.
@@ -234,20 +240,26 @@ void EquilibriumSolver::Impl::solve(double t, double p, std::span<const double> 
                                   t, t - 273.15, system->minimum_temperature(), system->maximum_temperature()));
   if (!std::isfinite(p) || p <= 0.0)
     throw ThermoError(ErrorKind::bad_input, fmt::format("pressure {} Pa is not a positive number", p));
+  const bool same_conditions = t == temperature && p == pressure;
   temperature = t;
   pressure = p;
-  evaluation_valid = false;  // γ and a_w depend on T and on which solutes are present
   set_totals(amounts, open_gas_pressures);
   update_log_k(t, p);
 
   double* x = N_VGetArrayPointer(u);
   const bool warm = has_previous && previous_active == active;
+  // γ and a_w depend on T, P and the molalities alone: the evaluation at the previous answer serves
+  // a warm start from it at the same T and P (evaluate_molalities checks that u is the same).
+  if (!(warm && same_conditions)) evaluation_valid = false;
   const auto start_cold = [&] {
     std::fill(solid_present.begin(), solid_present.end(), 0);
     gas_phase_present = false;
     ideal_guess(x);
   };
   if (warm) {
+    reuse_factorization = factorization_current && factored_temperature == t && factored_pressure == p &&
+                          factored_solid_present == previous_solid_present &&
+                          factored_gas_phase_present == previous_gas_phase_present;
     std::copy(previous_u.begin(), previous_u.end(), x);
     solid_present = previous_solid_present;
     gas_phase_present = previous_gas_phase_present;
@@ -257,6 +269,7 @@ void EquilibriumSolver::Impl::solve(double t, double p, std::span<const double> 
   bool converged = settle_phases();
   bool used_warm = warm;
   if (!converged && warm) {  // a poor warm start is retried cold before giving up
+    reuse_factorization = false;
     start_cold();
     converged = settle_phases();
     used_warm = false;
@@ -282,8 +295,13 @@ std::vector<std::string> describe_warnings(const Speciation& s) {
   std::vector<std::string> text;
   if (s.warnings & ionic_strength_beyond_model)
     text.push_back(fmt::format("ionic strength {:.3g} mol/kg is beyond the {} activity model's range (about {:g} mol/kg): "
-                               "activities, and pH with them, are extrapolated",
-                               s.ionic_strength, s.activity_model_name, s.activity_model_limit));
+                               "activities, and pH with them, are extrapolated; {}",
+                               s.ionic_strength, s.activity_model_name, s.activity_model_limit,
+                               // 6 mol/kg: the range of the bundled Pitzer parameters (thermo/data/pitzer)
+                               s.ionic_strength <= 6.0 && std::string_view(s.activity_model_name) != "pitzer"
+                                   ? "the pitzer model serves to about 6 mol/kg"
+                                   : "no ion-interaction model serves here; a concentrated acid or base needs a "
+                                     "full-range acid-water property model"));
   return text;
 }
 
@@ -309,6 +327,10 @@ Speciation EquilibriumSolver::solve(double temperature, double pressure, std::sp
 }
 
 void EquilibriumSolver::reset_warm_start() noexcept { impl_->has_previous = false; }
+
+double EquilibriumSolver::jacobian_finite_difference_error(double offset) {
+  return impl_->jacobian_finite_difference_error(offset);
+}
 
 const ChemicalSystem& EquilibriumSolver::system() const noexcept { return *impl_->system; }
 

@@ -5,7 +5,7 @@
 
 #include <kinsol/kinsol.h>
 #include <nvector/nvector_serial.h>
-#include <sunmatrix/sunmatrix_dense.h>
+#include <sundials/sundials_matrix.h>
 
 #include <algorithm>
 #include <cmath>
@@ -60,12 +60,13 @@ struct EquilibriumSolver::Impl {
     return 0;
   }
 
+  double jacobian_finite_difference_error(double offset);
   void set_totals(std::span<const double> amounts, std::span<const double> open_gas_pressures);
   bool settle_phases();
   void predict_precipitation(std::size_t allowed_index);
   void update_log_k(double temperature, double pressure);
   void ideal_guess(double* u);  // for the current set of present phases
-  void guess_pass(double* u, double ln_water_activity);
+  void guess_pass(double* u, double ln_water_activity, bool first);
   bool solve_current_set();
   bool replace_rival(std::size_t added);
   int run_kinsol(int strategy);
@@ -108,8 +109,15 @@ struct EquilibriumSolver::Impl {
   std::vector<double> guess_ln_gamma, conditional_ln_k;  // the guess's activity corrections
   std::vector<double> shift_by_basis;  // ln of the fraction of each basis species a precipitation leaves
   std::vector<double> guess_x, guess_totals, guess_stoichiometry, guess_ln_k, previous_u, gradient;
+  std::vector<double> basis_amount;  // Σ_i ν_ib m_i of each basis species, scratch of the residual
   std::vector<char> guess_active, previous_active;
   bool has_previous = false;
+  // The LU in the linear solver: at which T and P its Jacobian was evaluated, and whether the next
+  // KINSOL call may start with it (a warm start of the same phase set: docs/equilibrium.md).
+  bool factorization_current = false, reuse_factorization = false;
+  double factored_temperature = -1.0, factored_pressure = -1.0;
+  std::vector<char> factored_solid_present;  // the phase set the LU's Jacobian was evaluated for
+  bool factored_gas_phase_present = false;
   int last_flag = 0;
   std::string kinsol_message;
   std::vector<double> evaluated_at;  // the u of the current molalities and activity evaluation

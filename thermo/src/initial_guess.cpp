@@ -74,6 +74,25 @@ void minimise_ideal_dual(const GuessProblem& p, std::span<double> x, int iterati
   }
   for (std::size_t b : variables)
     if (b != 0) x[b] -= shift;
+  // The non-zero coefficients of each present solute on the variables: the gradient Σ_i ν_i m_i
+  // and the Hessian Σ_i ν_i ν_iᵀ m_i are sums over these alone.
+  struct Entry {
+    Eigen::Index variable;
+    double coefficient;
+  };
+  std::vector<Entry> entries;
+  std::vector<std::size_t> first_entry{0};  // entries of the j-th present solute: [first_entry[j], first_entry[j+1])
+  for (std::size_t i = 0; i < p.solute_count; ++i) {
+    if (!p.present[i]) continue;
+    for (Eigen::Index r = 0; r < k; ++r) {
+      const double nu = p.stoichiometry[i * p.basis_count + variables[static_cast<std::size_t>(r)]];
+      if (nu != 0.0) entries.push_back({r, nu});
+    }
+    first_entry.push_back(entries.size());
+  }
+  std::vector<std::size_t> present_solutes;
+  for (std::size_t i = 0; i < p.solute_count; ++i)
+    if (p.present[i]) present_solutes.push_back(i);
   Eigen::VectorXd gradient(k), step(k);
   Eigen::MatrixXd hessian(k, k);
   std::vector<double> trial(x.begin(), x.end());
@@ -81,21 +100,23 @@ void minimise_ideal_dual(const GuessProblem& p, std::span<double> x, int iterati
     gradient.setZero();
     hessian.setZero();
     double size = 0.0;  // Σ |ν| m: the scale the gradient is measured against
-    for (std::size_t i = 0; i < p.solute_count; ++i) {
-      if (!p.present[i]) continue;
-      const double m = molality_of(p, x, i);
-      for (Eigen::Index r = 0; r < k; ++r) {
-        const double nu_r = p.stoichiometry[i * p.basis_count + variables[static_cast<std::size_t>(r)]];
-        if (nu_r == 0.0) continue;
-        gradient[r] += nu_r * m;
-        size += std::abs(nu_r) * m;
-        for (Eigen::Index c = 0; c < k; ++c)
-          hessian(r, c) += nu_r * p.stoichiometry[i * p.basis_count + variables[static_cast<std::size_t>(c)]] * m;
+    double magnitude = 0.0;  // Σ m + Σ |t x|: the scale of G's rounding error
+    for (std::size_t j = 0; j < present_solutes.size(); ++j) {
+      const double m = molality_of(p, x, present_solutes[j]);
+      magnitude += m;
+      for (std::size_t e = first_entry[j]; e < first_entry[j + 1]; ++e) {
+        const double nu_m = entries[e].coefficient * m;
+        gradient[entries[e].variable] += nu_m;
+        size += std::abs(nu_m);
+        for (std::size_t f = first_entry[j]; f < first_entry[j + 1]; ++f)
+          hessian(entries[e].variable, entries[f].variable) += nu_m * entries[f].coefficient;
       }
     }
     double largest = 0.0;
     for (Eigen::Index r = 0; r < k; ++r) {
-      const double t = p.basis_total[variables[static_cast<std::size_t>(r)]];
+      const std::size_t b = variables[static_cast<std::size_t>(r)];
+      const double t = p.basis_total[b];
+      magnitude += std::abs(t * x[b]);
       gradient[r] -= t;
       largest = std::max(largest, std::abs(gradient[r]) / std::max(std::abs(t), 1e-300));
     }
@@ -106,9 +127,18 @@ void minimise_ideal_dual(const GuessProblem& p, std::span<double> x, int iterati
     // At most a factor e^10 per step, by shortening the whole step so its direction stays a descent one.
     const double longest = step.cwiseAbs().maxCoeff();
     if (longest > 10.0) step *= 10.0 / longest;
+    const double slope = gradient.dot(step);
+    // Near the minimum the decrease Newton predicts falls below the rounding error of G and the
+    // Armijo test can no longer tell a better point: the full step is then the answer.
+    if (-slope <= 64.0 * std::numeric_limits<double>::epsilon() * magnitude) {
+      for (Eigen::Index r = 0; r < k; ++r) {
+        const std::size_t b = variables[static_cast<std::size_t>(r)];
+        x[b] = std::clamp(x[b] + step[r], lowest_log, highest_log);
+      }
+      return;
+    }
     // Armijo backtracking on G, which is convex: any descent direction admits a decreasing step.
     const double g0 = dual(p, x, variables);
-    const double slope = gradient.dot(step);
     double lambda = 1.0;
     bool moved = false;
     for (int halving = 0; halving < 40; ++halving, lambda *= 0.5) {

@@ -41,7 +41,9 @@ const thermo::Database& module_database() {
 }
 
 thermo::ActivityModelKind activity_kind(const std::string& name) {
-  return name == "b-dot" ? thermo::ActivityModelKind::b_dot : thermo::ActivityModelKind::davies;
+  return name == "b-dot"    ? thermo::ActivityModelKind::b_dot
+         : name == "pitzer" ? thermo::ActivityModelKind::pitzer
+                            : thermo::ActivityModelKind::davies;
 }
 
 std::size_t trade_index(const std::string& formula) {

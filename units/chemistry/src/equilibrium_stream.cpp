@@ -21,7 +21,7 @@ constexpr double enthalpy_match_kelvin = 1e-6;
 }  // namespace
 
 EquilibriumStream::EquilibriumStream(std::string_view unit_type, const thermo::ChemicalSystem& system)
-    : unit_type_(unit_type), system_(&system), solver_(system), totals_(system.components().size(), 0.0) {}
+    : unit_type_(unit_type), system_(&system), solver_(system), excess_(thermo::make_excess_enthalpy_model(system)), totals_(system.components().size(), 0.0) {}
 
 void EquilibriumStream::clear() { std::ranges::fill(totals_, 0.0); }
 
@@ -42,7 +42,7 @@ void EquilibriumStream::equilibrate(double temperature, double pressure, const s
                                     pfu_status out_of_range_status) {
   try {
     solver_.solve(temperature, pressure, totals_, {}, state_);
-    enthalpy_ = thermo::state_enthalpy(*system_, state_);
+    enthalpy_ = thermo::state_enthalpy(*system_, state_, excess_.get());
   } catch (const thermo::ThermoError& error) {
     throw_unit_error(error, unit_type_, what, out_of_range_status);
   }
@@ -51,7 +51,7 @@ void EquilibriumStream::equilibrate(double temperature, double pressure, const s
 // H(T) − target of the equilibrium at T; leaves that state in state_.
 double EquilibriumStream::mismatch_at(double temperature, double pressure, double target) {
   solver_.solve(temperature, pressure, totals_, {}, state_);
-  return thermo::state_enthalpy(*system_, state_) - target;
+  return thermo::state_enthalpy(*system_, state_, excess_.get()) - target;
 }
 
 // thermo::solve_at_enthalpy brackets only the temperatures where a liquid state exists (a target
@@ -60,11 +60,11 @@ double EquilibriumStream::mismatch_at(double temperature, double pressure, doubl
 void EquilibriumStream::equilibrate_at_enthalpy(double target, double pressure, const std::string& what,
                                                 pfu_status out_of_range_status) {
   try {
-    thermo::solve_at_enthalpy(solver_, target, pressure, totals_, {}, state_);
+    thermo::solve_at_enthalpy(solver_, target, pressure, totals_, {}, state_, excess_.get());
     const double low = system_->minimum_temperature();
     const double high = system_->maximum_temperature();
     double best_t = state_.temperature;
-    double best_miss = thermo::state_enthalpy(*system_, state_) - target;
+    double best_miss = thermo::state_enthalpy(*system_, state_, excess_.get()) - target;
     // Heat capacity of the stream from a 1 mK step, kept inside the data's range.
     const double step = best_t + 1e-3 <= high ? 1e-3 : -1e-3;
     const double heat_capacity = (mismatch_at(best_t + step, pressure, target) - best_miss) / step;  // W/K
@@ -87,7 +87,7 @@ void EquilibriumStream::equilibrate_at_enthalpy(double target, double pressure, 
                                 " W/K); the target may land on a phase change that temperature alone does not resolve, "
                                 "such as boiling at fixed pressure");
     }
-    enthalpy_ = thermo::state_enthalpy(*system_, state_);
+    enthalpy_ = thermo::state_enthalpy(*system_, state_, excess_.get());
   } catch (const thermo::ThermoError& error) {
     throw_unit_error(error, unit_type_, what, out_of_range_status);
   }

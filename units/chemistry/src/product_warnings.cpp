@@ -2,6 +2,7 @@
 
 #include <cstddef>
 
+#include <protonflow/thermo/pitzer_coverage.hpp>
 #include <protonflow/units/message_text.hpp>
 
 namespace protonflow::units {
@@ -52,6 +53,7 @@ void warn_about_product(std::string_view unit_type, std::string_view fouling, co
               " at equilibrium " + number_text(inlets.solid_amount[s], 4) + ")";
   }
   if (!solids.empty()) warnings.add(prefix + "solids precipitate in the product: " + solids + ": " + std::string(fouling));
+  for (const std::string& line : thermo::describe_pitzer_coverage(system, product)) warnings.add(prefix + "product: " + line);
 }
 
 void warn_about_model(std::string_view unit_type, std::string_view stream, const thermo::Speciation& state,

@@ -25,7 +25,9 @@ std::unique_ptr<thermo::ChemicalSystem> make_stream_system(std::string_view unit
   const std::string prefix = "unit '" + std::string(unit_type) + "': ";
   if (!slate.find_component("H2O")) throw unit::UnitError(PFU_INVALID_PARAMETER, prefix + "the slate must include H2O, the solvent");
   thermo::SystemOptions options;
-  options.activity = activity_model == "b-dot" ? thermo::ActivityModelKind::b_dot : thermo::ActivityModelKind::davies;
+  options.activity = activity_model == "b-dot"    ? thermo::ActivityModelKind::b_dot
+                     : activity_model == "pitzer" ? thermo::ActivityModelKind::pitzer
+                                                  : thermo::ActivityModelKind::davies;
   const thermo::Database* shared = nullptr;
   try {
     shared = &module_database();

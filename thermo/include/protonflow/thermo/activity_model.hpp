@@ -3,6 +3,7 @@
 
 #include <memory>
 #include <span>
+#include <string>
 #include <string_view>
 #include <vector>
 
@@ -12,6 +13,7 @@ namespace protonflow::thermo {
 struct SoluteProperties {
   std::vector<int> charge;
   std::vector<double> ion_size_angstrom;  // 0 for neutral species
+  std::vector<std::string> name;          // species names; the Pitzer model finds its parameters by them
 };
 
 // Output buffers, sized once for n solutes; a model writes every entry on each call.
@@ -36,7 +38,7 @@ class ActivityModel {
                         ActivityEvaluation& out) const = 0;
 };
 
-enum class ActivityModelKind { ideal, davies, b_dot };
+enum class ActivityModelKind { ideal, davies, b_dot, pitzer };
 
 // Davies (1962) for charged species, γ = 1 for neutral ones.
 std::unique_ptr<ActivityModel> make_davies_model(SoluteProperties solutes);

@@ -2,6 +2,7 @@
 #pragma once
 
 #include <filesystem>
+#include <string>
 #include <string_view>
 #include <vector>
 
@@ -25,6 +26,15 @@ class Database {
 
 // Reads every *.yaml file of a directory; throws DataError with file, line and column.
 Database load_database(const std::filesystem::path& directory);
+
+// Species data held in memory: the text of one data file and the name to report it under.
+struct DataText {
+  std::string file;
+  std::string text;
+};
+
+// Reads species data from texts, in their order, with the same checks as the directory form.
+Database load_database(const std::vector<DataText>& texts);
 
 // The directory of the bundled data: $PROTONFLOW_DATA_DIR if set, else the build's data folder.
 std::filesystem::path default_data_directory();

@@ -77,6 +77,12 @@ class EquilibriumSolver {
   // Forget the previous answer, so the next solve starts cold.
   void reset_warm_start() noexcept;
 
+  // A check for tests: the largest difference between the analytic Jacobian of the equations and
+  // central finite differences of the residual, each relative to its row's largest entry, at the
+  // previous answer moved off the solution by `offset` in every ln unknown (docs/equilibrium.md).
+  // Needs a previous solve; throws ThermoError(bad_input) without one.
+  double jacobian_finite_difference_error(double offset = 0.01);
+
   const ChemicalSystem& system() const noexcept;
 
  private:

@@ -6,6 +6,10 @@
 // in W: speciation is intensive and the enthalpy scales linearly with the amounts.
 #pragma once
 
+#include <protonflow/thermo/pitzer_enthalpy.hpp>
+
+#include <memory>
+
 #include <protonflow/unit_module.hpp>
 
 #include <protonflow/thermo/chemical_system.hpp>
@@ -52,6 +56,8 @@ class EquilibriumStream {
   std::string unit_type_;
   const thermo::ChemicalSystem* system_;
   thermo::EquilibriumSolver solver_;  // warm-starts from this stream's previous answer
+  // Heats of dilution of the activity model, where it has them (Pitzer); null otherwise.
+  std::unique_ptr<thermo::ExcessEnthalpyModel> excess_;
   std::vector<double> totals_;        // mol/s per component, all phases
   thermo::Speciation state_;
   double enthalpy_ = 0.0;             // J

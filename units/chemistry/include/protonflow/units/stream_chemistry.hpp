@@ -14,9 +14,9 @@
 namespace protonflow::units {
 
 // The activity-model parameter every chemistry unit declares, and the choices behind it.
-inline constexpr std::array<const char*, 2> activity_model_choices{"davies", "b-dot"};
+inline constexpr std::array<const char*, 3> activity_model_choices{"davies", "b-dot", "pitzer"};
 inline constexpr pfu_parameter activity_model_parameter =
-    unit::choice("activity_model", activity_model_choices, "davies", "activity coefficients: Davies or extended Debye-Hueckel (B-dot)");
+    unit::choice("activity_model", activity_model_choices, "davies", "activity coefficients: Davies, extended Debye-Hueckel (B-dot) or Pitzer (brines and acids to about 6 mol/kg)");
 
 // The system over the slate's components (H2O must be one) with the activity model named by
 // activity_model (one of activity_model_choices); every solid the slate reaches may precipitate,

@@ -1,0 +1,193 @@
+// Reader of the Pitzer parameter file (format: docs/activity.md, "Pitzer parameter file").
+#include "protonflow/thermo/pitzer_parameters.hpp"
+
+#include <yaml-cpp/yaml.h>
+
+#include <fmt/format.h>
+#include <set>
+
+#include "protonflow/thermo/constants.hpp"
+#include "protonflow/thermo/database.hpp"
+#include "protonflow/thermo/errors.hpp"
+#include "protonflow/thermo/formula.hpp"
+
+namespace protonflow::thermo {
+
+double PitzerCoefficient::at(double temperature) const noexcept {
+  const double dt = temperature - constants::reference_temperature;
+  return value + dt * (d_dT + 0.5 * dt * d2_dT2);
+}
+
+namespace {
+
+class ParameterFileReader {
+ public:
+  explicit ParameterFileReader(std::string file) : file_(std::move(file)) {}
+
+  PitzerParameters read() {
+    YAML::Node root;
+    try {
+      root = YAML::LoadFile(file_);
+    } catch (const YAML::ParserException& e) {
+      throw DataError(file_, e.mark.line + 1, e.mark.column + 1, e.msg);
+    } catch (const YAML::BadFile&) {
+      throw DataError(file_, 0, 0, "cannot open the file");
+    }
+    if (!root.IsMap()) fail(root, "a Pitzer parameter file is a map of sections (binary, theta, psi, lambda, zeta, ...)");
+    check_keys(root, {"maximum_ionic_strength", "folded_ion_pairs", "binary", "theta", "psi", "lambda", "zeta"});
+    PitzerParameters p;
+    if (root["maximum_ionic_strength"]) p.maximum_ionic_strength = sourced(root["maximum_ionic_strength"]);
+    if (const auto pairs = root["folded_ion_pairs"]) {
+      if (!pairs.IsSequence()) fail(pairs, "'folded_ion_pairs' is a list of species names");
+      for (const auto& name : pairs) p.folded_ion_pairs.push_back(species_name(name));
+    }
+    for (const auto& node : section(root, "binary")) p.binary.push_back(read_binary(node));
+    for (const auto& node : section(root, "theta")) p.theta.push_back(read_pair(node, "theta"));
+    for (const auto& node : section(root, "lambda")) p.lambda.push_back(read_pair(node, "lambda"));
+    for (const auto& node : section(root, "psi")) p.psi.push_back(read_triple(node, "psi"));
+    for (const auto& node : section(root, "zeta")) p.zeta.push_back(read_triple(node, "zeta"));
+    return p;
+  }
+
+ private:
+  [[noreturn]] void fail(const YAML::Node& node, const std::string& what) const {
+    throw DataError(file_, node.Mark().line + 1, node.Mark().column + 1, what);
+  }
+
+  void check_keys(const YAML::Node& map, const std::set<std::string>& allowed) const {
+    for (const auto& entry : map) {
+      const auto key = entry.first.as<std::string>();
+      if (!allowed.count(key)) fail(entry.first, fmt::format("unknown key '{}'", key));
+    }
+  }
+
+  YAML::Node section(const YAML::Node& root, const char* key) const {
+    const YAML::Node node = root[key];
+    if (node && !node.IsSequence()) fail(node, fmt::format("'{}' is a list of entries", key));
+    return node ? node : YAML::Node(YAML::NodeType::Sequence);
+  }
+
+  // {value: x, source: key} (a note is allowed); every number names its source.
+  double sourced(const YAML::Node& node) const {
+    if (!node.IsMap() || !node["value"] || !node["source"])
+      fail(node, "a parameter needs both 'value' and 'source'");
+    check_keys(node, {"value", "source", "note"});
+    try {
+      return node["value"].as<double>();
+    } catch (const YAML::Exception&) {
+      fail(node["value"], "the value is not a number");
+    }
+  }
+
+  // A species name in the project's notation; the older one ("Ca+2") is refused as the loader refuses it.
+  std::string species_name(const YAML::Node& node) const {
+    if (!node.IsScalar()) fail(node, "a species name is a single word, e.g. Ca^2+");
+    const auto name = node.as<std::string>();
+    if (const auto replacement = notation_replacement(name))
+      fail(node, fmt::format("'{}' is the older ion notation: write '{}'", name, *replacement));
+    return name;
+  }
+
+  std::vector<std::string> species(const YAML::Node& node, std::size_t count) const {
+    const YAML::Node list = node["species"];
+    if (!list || !list.IsSequence() || list.size() != count)
+      fail(node, fmt::format("an entry needs 'species', a list of {} names", count));
+    std::vector<std::string> names;
+    for (const auto& name : list) names.push_back(species_name(name));
+    return names;
+  }
+
+  PitzerCoefficient coefficient(const YAML::Node& node, const std::string& key) const {
+    PitzerCoefficient c;
+    if (node[key]) c.value = sourced(node[key]);
+    if (node[key + "_dT"]) c.d_dT = sourced(node[key + "_dT"]);
+    if (node[key + "_dT2"]) c.d2_dT2 = sourced(node[key + "_dT2"]);
+    return c;
+  }
+
+  PitzerBinary read_binary(const YAML::Node& node) {
+    check_keys(node, {"species", "beta0", "beta0_dT", "beta0_dT2", "beta1", "beta1_dT", "beta1_dT2", "beta2", "beta2_dT",
+                      "beta2_dT2", "c_phi", "c_phi_dT", "c_phi_dT2", "alpha1", "alpha2", "note"});
+    const auto names = species(node, 2);
+    PitzerBinary b{names[0], names[1], coefficient(node, "beta0"), coefficient(node, "beta1"), coefficient(node, "beta2"),
+                   coefficient(node, "c_phi")};
+    if (!node["beta0"]) fail(node, fmt::format("the pair {}–{} needs at least beta0", names[0], names[1]));
+    // α by charge type (Pitzer 1991, ch. 3): α₁ = 2 with no β², except 2:2 salts, α₁ = 1.4 and
+    // α₂ = 12; an entry may set its own.
+    const bool two_two = charge_magnitude(names[0]) >= 2 && charge_magnitude(names[1]) >= 2;
+    b.alpha1 = node["alpha1"] ? sourced(node["alpha1"]) : two_two ? 1.4 : 2.0;
+    b.alpha2 = node["alpha2"] ? sourced(node["alpha2"]) : 12.0;
+    if (charge_sign(names[0]) <= 0 || charge_sign(names[1]) >= 0)
+      fail(node["species"], fmt::format("a binary entry lists a cation then an anion, not {} and {}", names[0], names[1]));
+    once(node, "binary", names[0] + " " + names[1]);
+    return b;
+  }
+
+  // θ: two ions of one sign; λ: a neutral species first, then any species.
+  PitzerPair read_pair(const YAML::Node& node, const std::string& key) {
+    check_keys(node, {"species", key, key + "_dT", key + "_dT2", "note"});
+    const auto names = species(node, 2);
+    if (!node[key]) fail(node, fmt::format("the entry needs '{}'", key));
+    const int a = charge_sign(names[0]), b = charge_sign(names[1]);
+    if (key == "theta" && (a == 0 || a != b || names[0] == names[1]))
+      fail(node["species"], fmt::format("theta is for two different ions of the same sign, not {} and {}", names[0], names[1]));
+    if (key == "lambda" && a != 0)
+      fail(node["species"], fmt::format("lambda lists a neutral species first, not {}", names[0]));
+    once(node, key, names[0] < names[1] || key == "lambda" ? names[0] + " " + names[1] : names[1] + " " + names[0]);
+    return {names[0], names[1], coefficient(node, key)};
+  }
+
+  // ψ: two different ions of one sign, then one of the other; ζ: a neutral, a cation, an anion.
+  PitzerTriple read_triple(const YAML::Node& node, const std::string& key) {
+    check_keys(node, {"species", key, key + "_dT", key + "_dT2", "note"});
+    const auto names = species(node, 3);
+    if (!node[key]) fail(node, fmt::format("the entry needs '{}'", key));
+    const int a = charge_sign(names[0]), b = charge_sign(names[1]), c = charge_sign(names[2]);
+    if (key == "psi" && (a == 0 || a != b || c != -a || names[0] == names[1]))
+      fail(node["species"], fmt::format("psi lists two different ions of one sign, then one of the other, not {}, {}, {}",
+                                        names[0], names[1], names[2]));
+    if (key == "zeta" && (a != 0 || b <= 0 || c >= 0))
+      fail(node["species"],
+           fmt::format("zeta lists a neutral species, a cation and an anion, not {}, {}, {}", names[0], names[1], names[2]));
+    const bool ordered = names[0] < names[1] || key == "zeta";
+    once(node, key, (ordered ? names[0] + " " + names[1] : names[1] + " " + names[0]) + " " + names[2]);
+    return {names[0], names[1], names[2], coefficient(node, key)};
+  }
+
+  // A parameter listed twice would be counted twice.
+  void once(const YAML::Node& node, const std::string& section, const std::string& key) {
+    if (!seen_.insert(section + ": " + key).second)
+      fail(node, fmt::format("{} of {} is listed twice", section, key));
+  }
+
+  static int charge_sign(const std::string& canonical) {
+    if (canonical.find('^') == std::string::npos) return 0;
+    return canonical.back() == '+' ? 1 : -1;
+  }
+  static int charge_magnitude(const std::string& canonical) {
+    const auto caret = canonical.find('^');
+    if (caret == std::string::npos) return 0;
+    const std::string number = canonical.substr(caret + 1, canonical.size() - caret - 2);
+    return number.empty() ? 1 : std::stoi(number);
+  }
+
+  std::string file_;
+  std::set<std::string> seen_;
+};
+
+}  // namespace
+
+PitzerParameters load_pitzer_parameters(const std::filesystem::path& file) {
+  return ParameterFileReader(file.string()).read();
+}
+
+std::filesystem::path default_pitzer_parameters_file() {
+  return default_data_directory() / "pitzer" / "ion-interaction.yaml";
+}
+
+const PitzerParameters& bundled_pitzer_parameters() {
+  static const PitzerParameters parameters = load_pitzer_parameters(default_pitzer_parameters_file());
+  return parameters;
+}
+
+}  // namespace protonflow::thermo
