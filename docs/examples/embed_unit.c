@@ -1,8 +1,9 @@
 /* Embedding a protonflow unit in another program, in plain C99 with nothing but unit_abi.h:
  * load a module, check its version, list its unit classes, create a mixer, solve it in our own
- * loop over several inlet states, print the results, destroy it. This is what another simulator
- * does to use a protonflow unit. ctest runs it on the ABI test module; it exits non-zero on any
- * failure, so it is a test as well as an example.
+ * loop over several inlet states, print the results, destroy it; then solve a unit with a list
+ * port and read the series it fills (unit ABI 1.3). This is what another simulator does to use a
+ * protonflow unit. ctest runs it on the ABI test module; it exits non-zero on any failure, so it
+ * is a test as well as an example.
  *
  *   usage: embed_unit MODULE.so
  */
@@ -218,12 +219,143 @@ static int run_mixer(const pfu_unit_class* mixer) {
   return ok;
 }
 
+/* The series capability of a class, or NULL: capabilities came with 1.3, each found by its id. */
+static const pfu_series_capability* series_of(const pfu_unit_class* unit_class) {
+  uint32_t i;
+  if (unit_class->header.abi_minor < 3 || unit_class->header.struct_size < sizeof *unit_class) return NULL;
+  for (i = 0; i < unit_class->capability_count; ++i) {
+    const pfu_capability* capability = unit_class->capabilities[i];
+    if (capability->id == PFU_CAPABILITY_SERIES && capability->header.struct_size >= sizeof(pfu_series_capability)) {
+      return (const pfu_series_capability*)(const void*)capability;
+    }
+  }
+  return NULL;
+}
+
+/* Three streams on the blender's list inlet, two on its list outlet, and its two series read back:
+ * one point per inlet blended, and a profile whose length the instance fixed at create. */
+static int run_blender(const pfu_unit_class* blender) {
+  static const char* const components[COMPONENTS] = {"H2O", "H2SO4", "NaOH", "CO2"};
+  static const char* const solids[SOLIDS] = {"gypsum"};
+  enum { INLETS = 3, OUTLETS = 2, MAX_POINTS = 64 };
+  const double temperatures[INLETS] = {300.0, 360.0, 330.0}; /* K */
+  const double water[INLETS] = {1.0, 3.0, 1.0};              /* mol/s */
+  const pfu_series_capability* capability = series_of(blender);
+  char message[512];
+  double flows[INLETS][FLOWS] = {{0}}, shares[OUTLETS][FLOWS];
+  double total_flow;
+  double xs[2][MAX_POINTS], ys[2][MAX_POINTS];
+  pfu_stream_state inlet_states[INLETS], outlet_states[OUTLETS];
+  const pfu_stream_state* inlets[INLETS];
+  pfu_stream_state* outlets[OUTLETS];
+  const uint32_t inlet_counts[1] = {INLETS}, outlet_counts[1] = {OUTLETS};
+  pfu_series_buffer buffers[2];
+  pfu_series_buffer* buffer_list[2];
+  pfu_solve_call call;
+  pfu_slate slate;
+  pfu_instance* instance;
+  pfu_status status;
+  uint32_t s, i;
+  int k, ok = 1;
+  double blend = 0.0, total = 0.0;
+
+  if (blender->solve_call == NULL || capability == NULL || capability->series_count != 2) {
+    fprintf(stderr, "the blender lacks the solve of unit ABI 1.3 or its two series\n");
+    return 0;
+  }
+  slate.header = header_of(sizeof slate);
+  slate.component_count = COMPONENTS;
+  slate.solid_count = SOLIDS;
+  slate.components = components;
+  slate.solids = solids;
+  instance = blender->create(NULL, 0, &slate, message, sizeof message);
+  if (instance == NULL) {
+    fprintf(stderr, "create failed: %s\n", message);
+    return 0;
+  }
+  for (k = 0; k < INLETS; ++k) {
+    flows[k][PFU_AQUEOUS_ROW * COMPONENTS + 0] = water[k];
+    inlet_states[k] = stream(temperatures[k], 101325.0, flows[k]);
+    inlets[k] = &inlet_states[k];
+    blend += water[k] * temperatures[k];
+    total += water[k];
+  }
+  blend /= total;
+  for (k = 0; k < OUTLETS; ++k) {
+    outlet_states[k] = stream(0.0, 0.0, shares[k]);
+    outlets[k] = &outlet_states[k];
+  }
+  /* Each series gets a caller-owned buffer at least as long as the instance says it fills. */
+  for (s = 0; s < 2; ++s) {
+    const pfu_series* series = element(capability->series, s);
+    const uint32_t length = capability->length != NULL ? capability->length(instance, s) : series->max_points;
+    if (length > MAX_POINTS) {
+      fprintf(stderr, "series %s needs %u points\n", series->name, (unsigned)length);
+      blender->destroy(instance);
+      return 0;
+    }
+    buffers[s].header = header_of(sizeof buffers[s]);
+    buffers[s].capacity = length;
+    buffers[s].count = 0;
+    buffers[s].x = xs[s];
+    buffers[s].y = ys[s];
+    buffer_list[s] = &buffers[s];
+  }
+  call.header = header_of(sizeof call);
+  call.inlets = inlets;
+  call.outlets = outlets;
+  call.inlet_counts = inlet_counts;
+  call.outlet_counts = outlet_counts;
+  call.inlet_count = INLETS;
+  call.outlet_count = OUTLETS;
+  call.results = &total_flow;
+  call.result_count = 1;
+  call.series_count = 2;
+  call.series = buffer_list;
+  call.warnings = NULL;
+  call.warnings_capacity = 0;
+  call.message = message;
+  call.message_capacity = sizeof message;
+  status = blender->solve_call(instance, &call);
+  if (status != PFU_OK) {
+    fprintf(stderr, "blender solve failed (%s): %s\n", pfu_status_name(status), message);
+    blender->destroy(instance);
+    return 0;
+  }
+  printf("blender: %u inlets into %u outlets at %.2f K, %.3f mol/s\n", (unsigned)INLETS, (unsigned)OUTLETS,
+         outlet_states[0].temperature, total_flow);
+  for (s = 0; s < 2; ++s) {
+    const pfu_series* series = element(capability->series, s);
+    printf("  series %s (%s [%s] -> %s [%s]), %u points:", series->name, series->x_name, series->x_unit, series->y_name,
+           series->y_unit, (unsigned)buffers[s].count);
+    for (i = 0; i < buffers[s].count; ++i) printf(" (%g, %g)", xs[s][i], ys[s][i]);
+    printf("\n");
+  }
+  /* Checks: one blend point per inlet ending at the flow-weighted mean, the profile full and
+   * ending there too, and the shares adding up to the feeds. */
+  if (buffers[0].count != INLETS || fabs(ys[0][INLETS - 1] - blend) > 1e-9 || fabs(xs[0][INLETS - 1] - total) > 1e-12) {
+    fprintf(stderr, "the blend series is wrong\n");
+    ok = 0;
+  }
+  if (buffers[1].count != buffers[1].capacity || fabs(ys[1][buffers[1].count - 1] - blend) > 1e-9) {
+    fprintf(stderr, "the profile series is wrong\n");
+    ok = 0;
+  }
+  if (fabs(shares[0][0] + shares[1][0] - total) > 1e-12 || fabs(outlet_states[1].temperature - blend) > 1e-9) {
+    fprintf(stderr, "the shares do not balance\n");
+    ok = 0;
+  }
+  blender->destroy(instance);
+  return ok;
+}
+
 int main(int argc, char** argv) {
   void* library;
   void* symbol;
   pfu_entry_fn entry;
   const pfu_module* module;
   const pfu_unit_class* mixer = NULL;
+  const pfu_unit_class* blender = NULL;
   uint32_t i;
   int ok;
 
@@ -256,12 +388,14 @@ int main(int argc, char** argv) {
     const pfu_unit_class* unit_class = element(module->classes, i);
     ok = readable(&unit_class->header, sizeof *unit_class, "a unit class", argv[1]) && list_class(unit_class, argv[1]);
     if (ok && strcmp(unit_class->type, "mixer") == 0) mixer = unit_class;
+    if (ok && strcmp(unit_class->type, "blender") == 0) blender = unit_class;
   }
-  if (ok && mixer == NULL) {
-    fprintf(stderr, "%s offers no mixer\n", argv[1]);
+  if (ok && (mixer == NULL || blender == NULL)) {
+    fprintf(stderr, "%s offers no mixer or no blender\n", argv[1]);
     ok = 0;
   }
   if (ok) ok = run_mixer(mixer);
+  if (ok) ok = run_blender(blender);
   dlclose(library); /* only after every instance is destroyed */
   printf("%s\n", ok ? "embedding worked" : "embedding FAILED");
   return ok ? 0 : 1;

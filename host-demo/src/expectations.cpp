@@ -14,8 +14,8 @@
 namespace protonflow::host {
 namespace {
 
-constexpr std::array<std::string_view, 7> kind_keys{"default", "temperature", "pressure", "flow",
-                                                    "mass_flow", "pH",         "results"};
+constexpr std::array<std::string_view, 8> kind_keys{"default", "temperature", "pressure", "flow",
+                                                    "mass_flow", "pH",         "results",  "series"};
 
 SourcePosition position_of(const std::string& file, const YAML::Node& node) {
   const YAML::Mark mark = node.Mark();
@@ -27,8 +27,8 @@ std::string default_tolerances_block() {
   return "tolerances:\n"
          "  # A value passes if |actual - expected| <= max(absolute, relative * |expected|). The most\n"
          "  # specific entry wins, field by field: a path (streams.NAME, streams.NAME.temperature_K,\n"
-         "  # units.NAME.results.RESULT, ...), then a kind (temperature, pressure, flow, mass_flow, pH,\n"
-         "  # results), then default. An absolute tolerance may carry a unit: {absolute: 0.01 K}.\n"
+         "  # units.NAME.results.RESULT, units.NAME.series.SERIES, ...), then a kind (temperature,\n"
+         "  # pressure, flow, mass_flow, pH, results, series), then default. An absolute tolerance may carry a unit: {absolute: 0.01 K}.\n"
          "  default: {relative: 1e-6, absolute: 1e-12}\n";
 }
 
@@ -186,6 +186,23 @@ class ExpectationReader {
           throw InputError(at(result.second), fmt::format("{} must be a mapping with 'value'", path));
         }
         add(expectations, path, result.second["value"]);
+      }
+    }
+    if (const YAML::Node series = node["series"]; series) {
+      if (!series.IsMap()) throw InputError(at(series), "'series' must map each series to its points");
+      for (const auto& one : series) {
+        const std::string path = fmt::format("{}.series.{}", base, one.first.Scalar());
+        const YAML::Node points = one.second.IsMap() ? one.second["points"] : YAML::Node();
+        if (!points || !points.IsSequence()) throw InputError(at(one.second), fmt::format("{} must have a list 'points'", path));
+        expectations.values.push_back({path + ".points", static_cast<double>(points.size()), at(points), {}});
+        for (std::size_t i = 0; i < points.size(); ++i) {
+          const YAML::Node point = points[i];
+          if (!point.IsSequence() || point.size() != 2) {
+            throw InputError(at(point), fmt::format("point {} of {} must be a pair [x, y]", i, path));
+          }
+          add(expectations, fmt::format("{}.x.{}", path, i), point[0]);
+          add(expectations, fmt::format("{}.y.{}", path, i), point[1]);
+        }
       }
     }
     if (const YAML::Node warnings = node["warnings"]; warnings) {

@@ -24,6 +24,7 @@ struct FlowsheetOptions {
 
 struct RunOptions : FlowsheetOptions {
   std::string results_file;  // -o; empty: no results file
+  std::string series_directory;  // --series-dir: one CSV per unit series, UNIT.SERIES.csv; empty: none
 };
 
 struct CheckOptions : FlowsheetOptions {

@@ -563,15 +563,26 @@ UnitInput Reader::read_unit(const YAML::Node& key, const YAML::Node& value) cons
   const Entry& ports = require(items, "ports", unit.at, context, "a mapping from each port to a stream, e.g. 'feed: raw'");
   for (const auto& [name, entry] :
        entries(mapping(ports, "port name to stream name, e.g. 'feed: raw'"), fmt::format("the ports of unit '{}'", unit.name), {}, false)) {
-    if (!entry.value.IsScalar()) {
-      throw InputError(at(entry.value.IsNull() ? entry.key : entry.value),
-                       fmt::format("port '{}' of unit '{}' needs the name of one stream", name, unit.name));
+    PortConnection connection{name, at(entry.key), {}, entry.value.IsSequence()};
+    const YAML::Node& port_key = entry.key;  // clang (the fuzz build) cannot capture a structured binding
+    const auto stream_name = [&](const YAML::Node& node) {
+      if (!node.IsScalar()) {
+        throw InputError(at(node.IsNull() ? port_key : node),
+                         fmt::format("port '{}' of unit '{}' needs the name of a stream, or a list of names for a port "
+                                     "that takes several, e.g. '[acid, water]'",
+                                     connection.port, unit.name));
+      }
+      if (!valid_name(node.Scalar())) {
+        throw InputError(at(node), fmt::format("stream name '{}' may use only letters, digits, '_' and '-'", node.Scalar()));
+      }
+      connection.streams.push_back({node.Scalar(), at(node)});
+    };
+    if (connection.list) {
+      for (const YAML::Node& item : entry.value) stream_name(item);
+    } else {
+      stream_name(entry.value);
     }
-    if (!valid_name(entry.value.Scalar())) {
-      throw InputError(at(entry.value), fmt::format("stream name '{}' may use only letters, digits, '_' and '-'",
-                                                    entry.value.Scalar()));
-    }
-    unit.ports.push_back({name, entry.value.Scalar(), at(entry.key), at(entry.value)});
+    unit.ports.push_back(std::move(connection));
   }
   return unit;
 }

@@ -47,11 +47,13 @@ struct ParameterInput {
   SourcePosition value_at;
 };
 
+// A port and what it is connected to: one stream ('feed: raw') or, for a port that takes a list
+// (unit ABI 1.3), a list of them ('feed: [acid, water, rinse]').
 struct PortConnection {
   std::string port;
-  std::string stream;
   SourcePosition port_at;
-  SourcePosition stream_at;
+  std::vector<NamedAt> streams;  // in the order written
+  bool list = false;             // written as a YAML sequence
 };
 
 struct UnitInput {

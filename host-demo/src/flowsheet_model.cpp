@@ -114,13 +114,13 @@ class Binder {
     }
   }
 
-  std::size_t stream_named(const PortConnection& connection) {
+  std::size_t stream_named(const NamedAt& named) {
     for (std::size_t i = 0; i < flowsheet_.streams.size(); ++i) {
-      if (flowsheet_.streams[i].name == connection.stream) return i;
+      if (flowsheet_.streams[i].name == named.name) return i;
     }
     StreamNode node;
-    node.name = connection.stream;
-    node.at = connection.stream_at;
+    node.name = named.name;
+    node.at = named.at;
     flowsheet_.streams.push_back(std::move(node));
     return flowsheet_.streams.size() - 1;
   }
@@ -197,7 +197,8 @@ class Binder {
     }
     const unit_host::UnitClassInfo& info = *module->find(unit.type);
     UnitNode node{.name = unit.name, .type = unit.type, .at = unit.at, .type_at = unit.type_at, .module = *module,
-                  .info = info, .parameters = {}, .inlet_ports = {}, .outlet_ports = {}, .inlets = {}, .outlets = {}};
+                  .info = info, .parameters = {}, .inlet_ports = {}, .outlet_ports = {}, .inlets = {}, .outlets = {},
+                  .inlet_counts = {}, .outlet_counts = {}};
     const std::string label = fmt::format("unit '{}' ({})", unit.name, unit.type);
 
     // Parameters: every given one must be declared; every required one must be given.
@@ -234,6 +235,32 @@ class Binder {
     pending_ = &node;
     for (const unit_host::PortInfo& port : info.ports) {
       const auto connection = std::ranges::find(unit.ports, port.name, &PortConnection::port);
+      (port.inlet ? node.inlet_counts : node.outlet_counts).push_back(1);
+      if (port.list) {
+        // A list port takes the streams of its list (or one stream written plainly), within its bounds.
+        const std::size_t count = connection == unit.ports.end() ? 0 : connection->streams.size();
+        if (count < port.min_streams || count > port.max_streams) {
+          const std::string bounds =
+              port.max_streams == PFU_UNBOUNDED_STREAMS ? fmt::format("at least {}", port.min_streams)
+              : port.min_streams == port.max_streams    ? fmt::format("{}", port.min_streams)
+                                                        : fmt::format("{} to {}", port.min_streams, port.max_streams);
+          throw InputError(connection == unit.ports.end() ? unit.at : connection->port_at,
+                           fmt::format("{}: port '{}' ({}: {}) takes {} stream{}, as a list such as '{}: [a, b]'; {} {} given",
+                                       label, port.name, direction_word(port.inlet), port.meaning, bounds,
+                                       port.max_streams == 1 ? "" : "s", port.name, count, count == 1 ? "is" : "are"));
+        }
+        (port.inlet ? node.inlet_counts : node.outlet_counts).back() = static_cast<std::uint32_t>(count);
+        if (connection != unit.ports.end()) {
+          for (const NamedAt& stream : connection->streams) connect(port, stream, unit, node, unit_index);
+        }
+        continue;
+      }
+      if (connection != unit.ports.end() && (connection->list || connection->streams.size() != 1)) {
+        throw InputError(connection->port_at,
+                         fmt::format("{}: port '{}' takes one stream, not a list; name one stream, or join the streams "
+                                     "first with a mixing unit",
+                                     label, port.name));
+      }
       if (connection == unit.ports.end() && port.optional) {
         StreamNode hidden;
         hidden.name = fmt::format("{}.{}", unit.name, port.name);
@@ -258,42 +285,48 @@ class Binder {
                                               "'ports' (only ports the unit marks optional may be left out)",
                                               label, port.name, direction_word(port.inlet), port.meaning));
       }
-      const std::size_t stream = stream_named(*connection);
-      StreamNode& node_stream = flowsheet_.streams[stream];
-      if (port.inlet) {
-        if (node_stream.sink_unit) {
-          throw InputError(connection->stream_at,
-                           fmt::format("stream '{}' already feeds {} (line {}); a stream goes to one inlet: split it "
-                                       "with a splitter to feed two",
-                                       node_stream.name, sink_label(node_stream), node_stream.sink_at.line));
-        }
-        node_stream.sink_unit = unit_index;
-        node_stream.sink_port = node.inlets.size();
-        node_stream.sink_at = connection->stream_at;
-        node.inlet_ports.push_back(port.name);
-        node.inlets.push_back(stream);
-      } else {
-        if (node_stream.source_unit) {
-          throw InputError(connection->stream_at,
-                           fmt::format("stream '{}' is already produced by {} (line {}); a stream comes from one "
-                                       "outlet: give this outlet a stream of its own",
-                                       node_stream.name, source_label(node_stream), node_stream.source_at.line));
-        }
-        if (node_stream.spec && !input().streams[*node_stream.spec].estimate) {
-          throw InputError(connection->stream_at,
-                           fmt::format("stream '{}' is given under 'streams' (line {}) as a feed, but {}.{} produces "
-                                       "it; remove it from 'streams', or mark it 'estimate: true' if it is a starting "
-                                       "estimate for a recycle",
-                                       node_stream.name, node_stream.at.line, unit.name, port.name));
-        }
-        node_stream.source_unit = unit_index;
-        node_stream.source_port = node.outlets.size();
-        node_stream.source_at = connection->stream_at;
-        node.outlet_ports.push_back(port.name);
-        node.outlets.push_back(stream);
-      }
+      connect(port, connection->streams.front(), unit, node, unit_index);
     }
     flowsheet_.units.push_back(std::move(node));
+  }
+
+  // Connects one stream to a port of the unit being bound.
+  void connect(const unit_host::PortInfo& port, const NamedAt& named,
+               const UnitInput& unit, UnitNode& node, std::size_t unit_index) {
+    const std::size_t stream = stream_named(named);
+    StreamNode& node_stream = flowsheet_.streams[stream];
+    if (port.inlet) {
+      if (node_stream.sink_unit) {
+        throw InputError(named.at,
+                         fmt::format("stream '{}' already feeds {} (line {}); a stream goes to one inlet: split it "
+                                     "with a splitter to feed two",
+                                     node_stream.name, sink_label(node_stream), node_stream.sink_at.line));
+      }
+      node_stream.sink_unit = unit_index;
+      node_stream.sink_port = node.inlets.size();
+      node_stream.sink_at = named.at;
+      node.inlet_ports.push_back(port.name);
+      node.inlets.push_back(stream);
+    } else {
+      if (node_stream.source_unit) {
+        throw InputError(named.at,
+                         fmt::format("stream '{}' is already produced by {} (line {}); a stream comes from one "
+                                     "outlet: give this outlet a stream of its own",
+                                     node_stream.name, source_label(node_stream), node_stream.source_at.line));
+      }
+      if (node_stream.spec && !input().streams[*node_stream.spec].estimate) {
+        throw InputError(named.at,
+                         fmt::format("stream '{}' is given under 'streams' (line {}) as a feed, but {}.{} produces "
+                                     "it; remove it from 'streams', or mark it 'estimate: true' if it is a starting "
+                                     "estimate for a recycle",
+                                     node_stream.name, node_stream.at.line, unit.name, port.name));
+      }
+      node_stream.source_unit = unit_index;
+      node_stream.source_port = node.outlets.size();
+      node_stream.source_at = named.at;
+      node.outlet_ports.push_back(port.name);
+      node.outlets.push_back(stream);
+    }
   }
 
   // The unit an index names: a bound one, or the one being bound (a stream on two of its own ports).

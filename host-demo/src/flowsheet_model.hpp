@@ -44,10 +44,14 @@ struct UnitNode {
   unit_host::Module module;
   unit_host::UnitClassInfo info;
   std::vector<unit_host::ParameterValue> parameters;  // SI, as the module takes them
-  std::vector<std::string> inlet_ports;   // names, in the descriptor's order
+  // Every stream of the unit, port by port in the descriptor's order; a list port (unit ABI 1.3)
+  // contributes the streams of its list, in the order written, another port one stream.
+  std::vector<std::string> inlet_ports;   // per stream: the name of its port
   std::vector<std::string> outlet_ports;
   std::vector<std::size_t> inlets;        // stream indices, parallel to inlet_ports
   std::vector<std::size_t> outlets;
+  std::vector<std::uint32_t> inlet_counts;   // per inlet port: how many of inlets are its streams
+  std::vector<std::uint32_t> outlet_counts;  // per outlet port
 };
 
 struct Flowsheet {

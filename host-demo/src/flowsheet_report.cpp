@@ -26,6 +26,25 @@ std::string percent(double fraction) {
 
 }  // namespace
 
+std::string series_table(const unit_host::SeriesInfo& info, const unit_host::SeriesValues& values) {
+  // Every point up to 21; beyond that 21 evenly spaced ones, the first and the last among them.
+  constexpr std::size_t shown = 21;
+  const std::size_t count = values.x.size();
+  std::string out = fmt::format("  series {}: {} point{} ({})\n", info.name, count, count == 1 ? "" : "s", info.meaning);
+  if (count == 0) return out;
+  const std::string x_head = fmt::format("{} [{}]", info.x_name, info.x_unit);
+  const std::string y_head = fmt::format("{} [{}]", info.y_name, info.y_unit);
+  const std::size_t width = std::max<std::size_t>(x_head.size(), 12);
+  out += fmt::format("    {:>{}}  {:>12}\n", x_head, width, y_head);
+  const std::size_t rows = std::min(count, shown);
+  for (std::size_t r = 0; r < rows; ++r) {
+    const std::size_t i = rows == count ? r : r * (count - 1) / (rows - 1);
+    out += fmt::format("    {:>{}.6g}  {:>12.6g}\n", values.x[i], width, values.y[i]);
+  }
+  if (rows < count) out += fmt::format("    ({} of {} points shown; all in the results file and --series-dir)\n", rows, count);
+  return out;
+}
+
 std::string stream_table(const SolvedFlowsheet& solved) {
   const Flowsheet& flowsheet = solved.flowsheet;
   const unit_host::Slate& slate = flowsheet.slate;
@@ -103,7 +122,14 @@ std::string unit_report(const SolvedFlowsheet& solved) {
                          std::isnan(value) || result.unit == "1" ? "" : " " + result.unit, result.meaning);
     }
     if (unit.info.results.empty()) out += "  (no results)\n";
-    for (const std::string& warning : outcome.warnings) out += fmt::format("  WARNING: {}\n", warning);
+    for (std::size_t s = 0; s < unit.info.series.size() && s < outcome.series.size(); ++s) {
+      out += series_table(unit.info.series[s], outcome.series[s]);
+    }
+    // Warnings are printed once, where they belong: at the unit's line of the flowsheet.
+    if (!outcome.warnings.empty()) {
+      out += fmt::format("  {} warning{}: see {}:{}\n", outcome.warnings.size(), outcome.warnings.size() == 1 ? "" : "s",
+                         unit.at.file, unit.at.line);
+    }
   }
   return out;
 }

@@ -41,6 +41,7 @@ std::string_view to_string(QuantityClass kind) noexcept {
     case QuantityClass::ph: return "pH";
     case QuantityClass::result: return "results";
     case QuantityClass::warnings: return "warnings";
+    case QuantityClass::series: return "series";
   }
   return "?";
 }
@@ -118,8 +119,24 @@ std::vector<ResultQuantity> flatten(const SolvedFlowsheet& solved) {
     }
     quantities.push_back({fmt::format("units.{}.warnings", unit.name), QuantityClass::warnings,
                           static_cast<double>(outcome.warnings.size()), "1", outcome.warnings});
+    for (std::size_t s = 0; s < unit.info.series.size() && s < outcome.series.size(); ++s) {
+      const unit_host::SeriesInfo& info = unit.info.series[s];
+      const unit_host::SeriesValues& values = outcome.series[s];
+      const std::string base = fmt::format("units.{}.series.{}", unit.name, info.name);
+      quantities.push_back({base + ".points", QuantityClass::series, static_cast<double>(values.x.size()), "1", {}});
+      for (std::size_t i = 0; i < values.x.size(); ++i) {
+        quantities.push_back({fmt::format("{}.x.{}", base, i), QuantityClass::series, values.x[i], info.x_unit, {}});
+        quantities.push_back({fmt::format("{}.y.{}", base, i), QuantityClass::series, values.y[i], info.y_unit, {}});
+      }
+    }
   }
   return quantities;
+}
+
+std::string series_csv(const unit_host::SeriesInfo& info, const unit_host::SeriesValues& values) {
+  std::string out = fmt::format("{} [{}],{} [{}]\n", info.x_name, info.x_unit, info.y_name, info.y_unit);
+  for (std::size_t i = 0; i < values.x.size(); ++i) out += fmt::format("{},{}\n", values.x[i], values.y[i]);
+  return out;
 }
 
 std::string results_yaml(const SolvedFlowsheet& solved, const std::vector<std::string>& header) {
@@ -195,6 +212,20 @@ std::string results_yaml(const SolvedFlowsheet& solved, const std::vector<std::s
     }
     out += outcome.warnings.empty() ? "    warnings: []\n" : "    warnings:\n";
     for (const std::string& warning : outcome.warnings) out += fmt::format("      - {}\n", yaml_string(warning));
+    if (unit.info.series.empty()) continue;
+    out += "    series:\n";
+    for (std::size_t s = 0; s < unit.info.series.size(); ++s) {
+      const unit_host::SeriesInfo& info = unit.info.series[s];
+      out += fmt::format("      {}:\n", yaml_string(info.name));
+      out += fmt::format("        x: {{name: {}, unit: {}}}\n", yaml_string(info.x_name), yaml_string(info.x_unit));
+      out += fmt::format("        y: {{name: {}, unit: {}}}\n", yaml_string(info.y_name), yaml_string(info.y_unit));
+      const unit_host::SeriesValues none;
+      const unit_host::SeriesValues& values = s < outcome.series.size() ? outcome.series[s] : none;
+      out += values.x.empty() ? "        points: []\n" : "        points:\n";
+      for (std::size_t i = 0; i < values.x.size(); ++i) {
+        out += fmt::format("          - [{}, {}]\n", yaml_number(values.x[i]), yaml_number(values.y[i]));
+      }
+    }
   }
   return out;
 }

@@ -13,14 +13,16 @@
 namespace protonflow::host {
 
 // What kind of quantity a value is; tolerances can be set per kind.
-enum class QuantityClass { temperature, pressure, flow, mass_flow, ph, result, warnings };
+enum class QuantityClass { temperature, pressure, flow, mass_flow, ph, result, warnings, series };
 
 std::string_view to_string(QuantityClass kind) noexcept;
 
 struct ResultQuantity {
-  std::string path;  // "streams.feed.temperature_K", "units.heat.results.duty", "units.heat.warnings"
+  // "streams.feed.temperature_K", "units.heat.results.duty", "units.heat.warnings",
+  // "units.mix.series.mixing_path.points", "units.mix.series.mixing_path.x.3" (0-based), ".y.3"
+  std::string path;
   QuantityClass kind;
-  double value;      // SI; for warnings, how many
+  double value;      // SI; for warnings, how many; for a series' points, how many
   std::string unit;  // UDUNITS-2 text of the SI unit; "1" if dimensionless
   std::vector<std::string> texts;  // for warnings: the lines themselves
 };
@@ -39,6 +41,10 @@ std::vector<ResultQuantity> flatten(const SolvedFlowsheet& solved);
 
 // The results YAML. header: comment lines to put first (each without '#').
 std::string results_yaml(const SolvedFlowsheet& solved, const std::vector<std::string>& header);
+
+// The CSV text of one series of a unit: a header naming x and y with their SI units, then one
+// line per point, numbers written to read back exactly.
+std::string series_csv(const unit_host::SeriesInfo& info, const unit_host::SeriesValues& values);
 
 // "from" and "to" of a stream: "feed", "product" or "unit.port".
 std::string stream_source(const Flowsheet& flowsheet, std::size_t stream);

@@ -191,7 +191,7 @@ class Runner {
     const auto start = std::chrono::steady_clock::now();
     unit_host::Solution result;
     try {
-      result = instances_[index].solve(inlets, outlets);
+      result = instances_[index].solve(inlets, unit.inlet_counts, outlets, unit.outlet_counts);
     } catch (const unit_host::SolveError& error) {
       throw UnitSolveFailure(index, error.status(), error.what(), when);
     } catch (const std::invalid_argument& error) {
@@ -201,6 +201,7 @@ class Runner {
     outcome.solve_seconds.push_back(std::chrono::duration<double>(stop - start).count());
     outcome.results = std::move(result.results);
     outcome.warnings = std::move(result.warnings);
+    outcome.series = std::move(result.series);
     for (std::size_t k = 0; k < unit.outlets.size(); ++k) {
       const std::size_t stream = unit.outlets[k];
       (is_tear_[stream] ? computed_ : solution_.streams)[stream] = outlets[k];

@@ -19,6 +19,7 @@ namespace protonflow::host {
 struct UnitOutcome {
   std::vector<double> results;        // of the last solve, in the descriptor's order
   std::vector<std::string> warnings;  // of the last solve
+  std::vector<unit_host::SeriesValues> series;  // of the last solve, in the descriptor's order
   std::vector<double> solve_seconds;  // wall time of every solve of the run, in order
 };
 

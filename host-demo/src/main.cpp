@@ -54,6 +54,8 @@ int main(int argc, char** argv) {
         app.add_subcommand("run", "Solve a flowsheet (docs/flowsheet-format.md) and print its streams and units");
     run_command->add_option("FLOWSHEET", run.file, "flowsheet file (YAML)")->required();
     run_command->add_option("-o,--output", run.results_file, "write the full results as YAML to this file");
+    run_command->add_option("--series-dir", run.series_directory,
+                            "write each series a unit reports as CSV into this directory (UNIT.SERIES.csv)");
     add_unit_dirs(run_command, run.unit_dirs);
     add_data_dir(run_command, data_directory);
 

@@ -65,8 +65,14 @@ std::string describe(const unit_host::UnitClassInfo& info, const unit_host::Modu
   std::string out = fmt::format("{}: {}\n", info.type, info.summary);
   out += fmt::format("  module: {} {} (unit ABI {}.{}), {}\n", module.name(), module.version(), module.abi_major(),
                      module.abi_minor(), module.file().string());
-  std::vector<std::vector<std::string>> ports{{"name", "direction", "phases", "meaning"}};
-  for (const auto& port : info.ports) ports.push_back({port.name, port.inlet ? "inlet" : "outlet", phases_text(port.phases), port.meaning});
+  std::vector<std::vector<std::string>> ports{{"name", "direction", "streams", "phases", "meaning"}};
+  for (const auto& port : info.ports) {
+    const std::string streams =
+        !port.list ? (port.optional ? "0 or 1" : "1")
+        : port.max_streams == PFU_UNBOUNDED_STREAMS ? fmt::format("list, {} or more", port.min_streams)
+                                                    : fmt::format("list, {} to {}", port.min_streams, port.max_streams);
+    ports.push_back({port.name, port.inlet ? "inlet" : "outlet", streams, phases_text(port.phases), port.meaning});
+  }
   out += "  ports:\n" + table(ports, "    ");
   if (info.parameters.empty()) {
     out += "  parameters: none\n";
@@ -83,6 +89,14 @@ std::string describe(const unit_host::UnitClassInfo& info, const unit_host::Modu
     std::vector<std::vector<std::string>> results{{"name", "unit", "meaning"}};
     for (const auto& r : info.results) results.push_back({r.name, unit_text(r.unit), r.meaning});
     out += "  results:\n" + table(results, "    ");
+  }
+  if (!info.series.empty()) {
+    std::vector<std::vector<std::string>> series{{"name", "x", "y", "points", "meaning"}};
+    for (const auto& s : info.series) {
+      series.push_back({s.name, fmt::format("{} [{}]", s.x_name, s.x_unit), fmt::format("{} [{}]", s.y_name, s.y_unit),
+                        fmt::format("up to {}", s.max_points), s.meaning});
+    }
+    out += "  series:\n" + table(series, "    ");
   }
   return out;
 }

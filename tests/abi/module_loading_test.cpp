@@ -44,7 +44,7 @@ TEST_CASE("a module built with the C++ helper describes its units without creati
   CHECK(module.version() == "1.0.0");
   CHECK(module.abi_major() == PFU_ABI_MAJOR);
   CHECK(module.abi_minor() == PFU_ABI_MINOR);
-  REQUIRE(module.classes().size() == 3);
+  REQUIRE(module.classes().size() == 4);
   CHECK(module.classes()[0].type == "passthrough");
   CHECK(module.classes()[2].type == "probe");
   CHECK(module.find("neutraliser") == nullptr);

@@ -43,7 +43,7 @@ TEST_CASE("the catalog maps each unit type to the first module offering it and k
   const std::vector<fs::path> path{first.path(), second.path(), first.path() / "absent"};
 
   const search::UnitCatalog catalog = search::UnitCatalog::scan(path);
-  CHECK(catalog.types() == std::vector<std::string>{"mixer", "old_copy", "passthrough", "probe"});
+  CHECK(catalog.types() == std::vector<std::string>{"blender", "mixer", "old_copy", "passthrough", "probe"});
   REQUIRE(catalog.module_for("mixer") != nullptr);
   CHECK(catalog.module_for("mixer")->file() == first.path() / "good.so");
   CHECK(catalog.module_for("old_copy")->file() == second.path() / "old.so");
@@ -56,7 +56,7 @@ TEST_CASE("the catalog maps each unit type to the first module offering it and k
   CHECK(catalog.problems()[0].file == first.path() / "major.so");
   CHECK_THAT(catalog.problems()[0].message, Contains("unit ABI 2.0"));
 
-  REQUIRE(catalog.shadowed().size() == 3);
+  REQUIRE(catalog.shadowed().size() == 4);
   CHECK(catalog.shadowed()[0].type == "passthrough");
   CHECK(catalog.shadowed()[0].used == first.path() / "good.so");
   CHECK(catalog.shadowed()[0].ignored == second.path() / "good_again.so");
@@ -67,7 +67,7 @@ TEST_CASE("the catalog maps each unit type to the first module offering it and k
     FAIL("found a unit type that is not on the path");
   } catch (const std::runtime_error& error) {
     const std::string message = error.what();
-    CHECK_THAT(message, Contains("unknown unit type 'neutraliser'; known types: mixer old_copy passthrough probe"));
+    CHECK_THAT(message, Contains("unknown unit type 'neutraliser'; known types: blender mixer old_copy passthrough probe"));
     CHECK_THAT(message, Contains("searched: " + first.path().string() + " " + second.path().string()));
     CHECK_THAT(message, Contains("not loaded: " + (first.path() / "major.so").string()));
   }

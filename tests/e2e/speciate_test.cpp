@@ -10,6 +10,7 @@
 #include <fmt/format.h>
 #include <yaml-cpp/yaml.h>
 
+#include "../support/temporary_directory.hpp"
 #include "run_program.hpp"
 
 namespace fs = std::filesystem;
@@ -354,7 +355,8 @@ TEST_CASE("a closed vessel forms a gas phase at its bubble point", "[speciate][g
 TEST_CASE("given an enthalpy, speciate finds the temperature", "[speciate][energy]") {
   const YAML::Node at_25 = speciate_report(cases_directory / "hcl-0.01-davies.yaml");
   const double enthalpy = number(at_25["enthalpy_J"]);
-  const fs::path file = fs::temp_directory_path() / "protonflow-e2e-enthalpy.yaml";
+  const protonflow::test_support::TemporaryDirectory directory;
+  const fs::path file = directory.path() / "enthalpy.yaml";
   {
     std::ofstream out(file);
     out << "solution:\n  enthalpy: " << fmt::format("{:.17g}", enthalpy) << " J\n  activity_model: davies\n"

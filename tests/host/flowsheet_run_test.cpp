@@ -165,12 +165,15 @@ TEST_CASE("a recycle that does not converge is an error with its history, and no
   CHECK_FALSE(fs::exists(results));
 }
 
-TEST_CASE("a unit's warnings are printed in the report and on stderr, at the unit") {
+TEST_CASE("a unit's warnings are printed once, at the unit's line of the flowsheet; the report points there") {
   const ProgramRun warned = run(cases / "hot-mix.yaml");
   INFO("stdout: " << warned.out << "\nstderr: " << warned.err);
   CHECK(warned.exit_code == 0);
-  CHECK_THAT(warned.out, Contains("WARNING: mixer: outlet at"));
+  const std::string text = "mixer: outlet at";
+  CHECK(warned.out.find(text) == std::string::npos);
+  CHECK_THAT(warned.out, Contains("1 warning: see " + (cases / "hot-mix.yaml").string() + ":14"));
   CHECK_THAT(warned.err, Contains((cases / "hot-mix.yaml").string() + ":14:3: warning: unit 'mix' (mixer): mixer: outlet at"));
+  CHECK(warned.err.find(text) == warned.err.rfind(text));  // once
 }
 
 TEST_CASE("every error a user can act on names the file, line and column and says what is wrong") {
@@ -311,6 +314,86 @@ TEST_CASE("check passes on recorded expectations, fails on a difference with a t
   const ProgramRun changed = check();
   CHECK(changed.exit_code == 3);
   CHECK_THAT(changed.out, Contains("missing from the results") && Contains("not in the expectations"));
+}
+
+TEST_CASE("list ports connect lists of streams, and series go to the report, the results, CSV files and check") {
+  // The blender takes the flow-weighted mean temperature of its inlets (equal molar heat
+  // capacities, a test simplification): (1.25·300 + 2.75·360 + 1·330)/5 = 339 K, and each share
+  // carries half of every flow at the lowest inlet pressure, 1.5 bar.
+  const TemporaryDirectory directory;
+  const fs::path results_file = directory.path() / "results.yaml";
+  const fs::path series_dir = directory.path() / "series";
+  const ProgramRun ran = run(cases / "blend-series.yaml", {"-o", results_file.string(), "--series-dir", series_dir.string()});
+  INFO("stdout: " << ran.out << "\nstderr: " << ran.err);
+  REQUIRE(ran.exit_code == 0);
+  const YAML::Node results = YAML::LoadFile(results_file.string());
+  const double blend = (1.25 * 300.0 + 2.75 * 360.0 + 1.0 * 330.0) / 5.0;
+  CHECK(number(results["streams"]["east"]["temperature_K"]) == Approx(blend).epsilon(1e-14));
+  CHECK(number(results["streams"]["west"]["pressure_Pa"]) == Approx(1.5e5).epsilon(1e-15));
+  CHECK(flow(results, "west", "H2O") == Approx(4.75 / 2).epsilon(1e-15));
+  CHECK(flow(results, "c", "HCl") == Approx(0.7 * 0.125).epsilon(1e-14));
+  CHECK(results["streams"]["water"]["to"].as<std::string>() == "blend.feed");
+  CHECK(results["streams"]["b"]["from"].as<std::string>() == "divide.outlets");
+
+  // The series in the results: one blend point per inlet, in list order, and the profile.
+  const YAML::Node path = results["units"]["blend"]["series"]["blend_temperature"];
+  REQUIRE(path["points"].size() == 3);
+  CHECK(path["x"]["unit"].as<std::string>() == "mol/s");
+  CHECK(number(path["points"][1][0]) == Approx(4.0).epsilon(1e-15));
+  CHECK(number(path["points"][1][1]) == Approx((1.25 * 300.0 + 2.75 * 360.0) / 4.0).epsilon(1e-14));
+  CHECK(number(path["points"][2][1]) == Approx(blend).epsilon(1e-14));
+  CHECK(results["units"]["blend"]["series"]["profile"]["points"].size() == 3);
+  CHECK(number(results["units"]["divide"]["series"]["shares"]["points"][2][1]) == Approx(0.7).epsilon(1e-14));
+
+  // In the report, and as CSV files named UNIT.SERIES.csv.
+  CHECK_THAT(ran.out, Contains("series blend_temperature: 3 points"));
+  CHECK_THAT(ran.out, Contains("flow_blended [mol/s]"));
+  CHECK_THAT(ran.out, Contains("3 series written to " + series_dir.string()));
+  const std::string csv = read_text(series_dir / "blend.blend_temperature.csv");
+  CHECK(csv.starts_with("flow_blended [mol/s],temperature [K]\n1.25,300\n4,"));
+  CHECK(fs::exists(series_dir / "blend.profile.csv"));
+  CHECK(fs::exists(series_dir / "divide.shares.csv"));
+
+  // check compares the series point by point: a changed point is a difference named by its path.
+  const fs::path expected = directory.path() / "blend.expected.yaml";
+  const auto check = [&](std::vector<std::string> extra = {}) {
+    std::vector<std::string> arguments{"check", (cases / "blend-series.yaml").string(), "--expect", expected.string(),
+                                       "--unit-dir", abi_modules};
+    arguments.insert(arguments.end(), extra.begin(), extra.end());
+    return run_protonflow(arguments);
+  };
+  REQUIRE(check({"--write-expect"}).exit_code == 0);
+  CHECK(check().exit_code == 0);
+  std::string text = read_text(expected);
+  const std::size_t series_at = text.find("blend_temperature:");
+  REQUIRE(series_at != std::string::npos);
+  const std::string point = "- [4, ";
+  const std::size_t at = text.find(point, series_at);
+  REQUIRE(at != std::string::npos);
+  text.replace(at, point.size(), "- [4.5, ");
+  write_text(expected, text);
+  const ProgramRun changed = check();
+  INFO("check: " << changed.out);
+  CHECK(changed.exit_code == 3);
+  CHECK_THAT(changed.out, Contains("units.blend.series.blend_temperature.x.1") && Contains("4.5"));
+  CHECK_THAT(changed.out, Contains("check FAILED: 1 of"));
+}
+
+TEST_CASE("a list port is given within its bounds, and a plain port is not given a list") {
+  const TemporaryDirectory directory;
+  const fs::path file = directory.path() / "bad-list.yaml";
+  const std::string head = "streams:\n  a: {temperature: 300 K, pressure: 1 bar, aqueous: {flows: {H2O: 1 mol/s}}}\n"
+                           "units:\n  divide:\n    type: splitter\n    parameters: {fraction_1: 0.5, fraction_2: 0.5}\n";
+  write_text(file, head + "    ports: {feed: a, outlets: [b]}\n");
+  const ProgramRun one = run(file);
+  CHECK(one.exit_code == 1);
+  CHECK_THAT(one.err, Contains(file.string() + ":7:22: error:") &&
+                          Contains("port 'outlets' (outlet: the branches, 2 to 8, as a list: outlets: [a, b]) takes 2 to 8 streams") &&
+                          Contains("1 is given"));
+  write_text(file, head + "    ports: {feed: [a, z], outlets: [b, c]}\n");
+  const ProgramRun listed = run(file);
+  CHECK(listed.exit_code == 1);
+  CHECK_THAT(listed.err, Contains(file.string() + ":7:13: error:") && Contains("port 'feed' takes one stream, not a list"));
 }
 
 TEST_CASE("units lists every type on the search path from its descriptors, and the modules that failed") {

@@ -7,10 +7,13 @@
 #include <filesystem>
 #include <unistd.h>
 
+#include "../support/temporary_directory.hpp"
+
 namespace protonflow::reference {
 
 std::vector<double> run_python(const std::string& script) {
-  const auto path = std::filesystem::temp_directory_path() / ("protonflow-reference-" + std::to_string(getpid()) + ".py");
+  const protonflow::test_support::TemporaryDirectory directory;  // the script's own, removed after
+  const auto path = directory.path() / "reference.py";
   std::ofstream(path) << script;
   const std::string command = std::string(PROTONFLOW_REFERENCE_PYTHON) + " " + path.string() + " 2>&1";
   FILE* pipe = popen(command.c_str(), "r");

@@ -4,6 +4,7 @@
 #include <filesystem>
 #include <fstream>
 
+#include "../support/temporary_directory.hpp"
 #include "protonflow/thermo/database.hpp"
 #include "protonflow/thermo/errors.hpp"
 #include "protonflow/thermo/temperature_function.hpp"
@@ -12,9 +13,11 @@ using namespace protonflow::thermo;
 
 namespace {
 
-// A data directory holding the bundled water.yaml plus one file of the test's own.
+// A data directory holding the bundled water.yaml plus one file of the test's own, inside this
+// run's own temporary directory (removed at exit), so that two runs never share one.
 std::filesystem::path directory_with(const std::string& name, const std::string& text) {
-  const auto dir = std::filesystem::temp_directory_path() / ("protonflow-db-" + name);
+  static const protonflow::test_support::TemporaryDirectory root;
+  const auto dir = root.path() / ("db-" + name);
   std::filesystem::remove_all(dir);
   std::filesystem::create_directories(dir);
   std::filesystem::copy_file(default_data_directory() / "water.yaml", dir / "water.yaml");

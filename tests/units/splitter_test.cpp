@@ -2,7 +2,9 @@
 // balance, which must close to round-off (exactly, in port order, where the arithmetic allows).
 #include <catch2/catch.hpp>
 
+#include <array>
 #include <cmath>
+#include <cstdint>
 #include <filesystem>
 #include <limits>
 #include <random>
@@ -43,7 +45,14 @@ host::StreamState three_phase_feed() {
 // Spacing of doubles just above x (x >= 0).
 double ulp(double x) { return std::nextafter(x, std::numeric_limits<double>::infinity()) - x; }
 
-std::vector<host::StreamState> outlets_for(std::size_t count = 8) { return std::vector<host::StreamState>(count); }
+std::vector<host::StreamState> outlets_for(std::size_t count) { return std::vector<host::StreamState>(count); }
+
+// One solve with the feed and as many outlets as the list port is given.
+host::Solution split(host::Instance& unit, const host::StreamState& feed, std::vector<host::StreamState>& outlets) {
+  const std::array<std::uint32_t, 1> one{1};
+  const std::array<std::uint32_t, 1> count{static_cast<std::uint32_t>(outlets.size())};
+  return unit.solve(std::span(&feed, 1), one, outlets, count);
+}
 
 std::string create_error(const std::vector<ParameterValue>& parameters) {
   try {
@@ -62,23 +71,23 @@ TEST_CASE("splitter: the module sits in the host's built-in directory and descri
   REQUIRE(info != nullptr);
   CHECK(splitter_module().classes().size() == 1);
   CHECK(info->inlet_count() == 1);
-  CHECK(info->outlet_count() == 8);
+  CHECK(info->outlet_count() == 1);
+  REQUIRE(info->ports.size() == 2);
   CHECK(info->ports[0].name == "feed");
-  CHECK(info->ports[1].name == "outlet_1");
-  CHECK(info->ports[8].name == "outlet_8");
+  CHECK_FALSE(info->ports[0].list);
+  // The branches are one list port of 2 to 8 streams (ABI 1.3).
+  CHECK(info->ports[1].name == "outlets");
+  CHECK(info->ports[1].list);
+  CHECK(info->ports[1].min_streams == 2);
+  CHECK(info->ports[1].max_streams == 8);
   for (const auto& port : info->ports) CHECK(port.phases == (PFU_PHASE_AQUEOUS | PFU_PHASE_GAS | PFU_PHASE_SOLID));
-  // The feed and the first two branches must be connected; the other six may stay unconnected (ABI 1.2).
-  for (std::size_t p = 0; p < info->ports.size(); ++p) CHECK(info->ports[p].optional == (p >= 3));
 
   const auto parameter = [&](const std::string& name) {
     const auto found = std::ranges::find(info->parameters, name, &host::ParameterInfo::name);
     REQUIRE(found != info->parameters.end());
     return *found;
   };
-  CHECK(parameter("outlets").unit == "1");
-  CHECK(parameter("outlets").default_number == 2.0);
-  CHECK(parameter("outlets").lower == 2.0);
-  CHECK(parameter("outlets").upper == 8.0);
+  CHECK(std::ranges::find(info->parameters, "outlets", &host::ParameterInfo::name) == info->parameters.end());
   CHECK(parameter("split_by").kind == host::ParameterKind::choice);
   CHECK(parameter("split_by").choices == std::vector<std::string>{"fractions", "flows"});
   CHECK(parameter("split_by").default_text == "fractions");
@@ -86,10 +95,15 @@ TEST_CASE("splitter: the module sits in the host's built-in directory and descri
   CHECK(parameter("fraction_8").upper == 1.0);
   CHECK(parameter("flow_7").unit == "mol/s");
   CHECK(std::ranges::find(info->parameters, "flow_8", &host::ParameterInfo::name) == info->parameters.end());
-  REQUIRE(info->results.size() == 9);
+  REQUIRE(info->results.size() == 1);
   CHECK(info->results[0].name == "feed_flow");
   CHECK(info->results[0].unit == "mol/s");
-  CHECK(info->results[8].name == "fraction_8");
+  // The shares sent are a series, one point per outlet, rather than eight results mostly unused.
+  REQUIRE(info->series.size() == 1);
+  CHECK(info->series[0].name == "shares");
+  CHECK(info->series[0].max_points == 8);
+  CHECK(create_splitter({{"fraction_1", 0.5}, {"fraction_2", 0.25}, {"fraction_3", 0.25}}, slate).series_lengths() ==
+        std::vector<std::uint32_t>{3});
 }
 
 TEST_CASE("splitter: parameters it cannot work with are refused at create, with the reason") {
@@ -99,28 +113,27 @@ TEST_CASE("splitter: parameters it cannot work with are refused at create, with 
   CHECK_THAT(create_error({{"fraction_1", 0.5}, {"fraction_2", 0.5 + 1e-11}}), Catch::Contains("add up to"));
   CHECK(create_error({{"fraction_1", 0.5}, {"fraction_2", 0.5 + 1e-13}}) == "created");
   CHECK_THAT(create_error({{"fraction_1", 1.0}}), Catch::Contains("needs parameter 'fraction_2'"));
-  CHECK_THAT(create_error({{"outlets", 2.5}, {"fraction_1", 0.5}, {"fraction_2", 0.5}}),
-             Catch::Contains("'outlets' = 2.5 is not a whole number"));
-  CHECK_THAT(create_error({{"outlets", 9.0}}), Catch::Contains("'outlets' = 9") && Catch::Contains("outside [2, 8]"));
-  CHECK_THAT(create_error({{"fraction_1", 0.5}, {"fraction_2", 0.5}, {"fraction_3", 0.0}}),
-             Catch::Contains("'fraction_3' is given, but only 2 outlets are used"));
+  CHECK_THAT(create_error({{"fraction_1", 0.5}, {"fraction_3", 0.5}}),
+             Catch::Contains("'fraction_3' is given without 'fraction_2'"));
+  CHECK_THAT(create_error({{"outlets", 2.0}, {"fraction_1", 0.5}, {"fraction_2", 0.5}}),
+             Catch::Contains("unknown parameter 'outlets'"));
   CHECK_THAT(create_error({{"fraction_1", 0.5}, {"fraction_2", 0.5}, {"flow_1", 1.0}}),
              Catch::Contains("'flow_1' does not apply with split_by fractions"));
   CHECK_THAT(create_error({{"fraction_1", 1.5}, {"fraction_2", -0.5}}), Catch::Contains("outside [0, 1]"));
-  CHECK_THAT(create_error({{"split_by", std::string("flows")}, {"outlets", 3.0}, {"flow_1", 1.0}}),
-             Catch::Contains("needs parameter 'flow_2'") && Catch::Contains("the last outlet takes the rest"));
-  CHECK_THAT(create_error({{"split_by", std::string("flows")}, {"flow_1", 1.0}, {"flow_2", 1.0}}),
-             Catch::Contains("'flow_2' is given") && Catch::Contains("outlet_2 takes the rest"));
+  CHECK_THAT(create_error({{"split_by", std::string("flows")}}),
+             Catch::Contains("needs parameter 'flow_1'") && Catch::Contains("the last, which takes the rest"));
+  CHECK_THAT(create_error({{"split_by", std::string("flows")}, {"flow_2", 1.0}}),
+             Catch::Contains("'flow_2' is given without 'flow_1'"));
   CHECK_THAT(create_error({{"split_by", std::string("flows")}, {"flow_1", 1.0}, {"fraction_1", 0.5}}),
              Catch::Contains("'fraction_1' does not apply with split_by flows"));
   CHECK_THAT(create_error({{"split_by", std::string("halves")}}), Catch::Contains("allowed: 'fractions', 'flows'"));
 }
 
 TEST_CASE("splitter: fractions split every phase and component alike, and the outlets add up to the feed exactly") {
-  auto unit = create_splitter({{"outlets", 3.0}, {"fraction_1", 0.1}, {"fraction_2", 0.2}, {"fraction_3", 0.7}}, slate);
+  auto unit = create_splitter({{"fraction_1", 0.1}, {"fraction_2", 0.2}, {"fraction_3", 0.7}}, slate);
   const host::StreamState feed = three_phase_feed();
-  auto outlets = outlets_for();
-  const host::Solution solution = unit.solve(std::span(&feed, 1), outlets);
+  auto outlets = outlets_for(3);
+  const host::Solution solution = split(unit, feed, outlets);
   CHECK(solution.warnings.empty());
   const std::array<double, 3> fractions{0.1, 0.2, 0.7};
   for (std::size_t k = 0; k < feed.flows.size(); ++k) {
@@ -131,17 +144,28 @@ TEST_CASE("splitter: fractions split every phase and component alike, and the ou
     CHECK(outlets[2].flows[k] == Approx(feed.flows[k] * fractions[2]).epsilon(1e-14).margin(0.0));
     // and the outlets, added in port order, give the feed back bit for bit.
     CHECK(outlets[0].flows[k] + outlets[1].flows[k] + outlets[2].flows[k] == feed.flows[k]);
-    for (std::size_t i = 3; i < 8; ++i) CHECK(outlets[i].flows[k] == 0.0);
   }
   for (const auto& outlet : outlets) {
     CHECK(outlet.temperature == feed.temperature);
     CHECK(outlet.pressure == feed.pressure);
   }
   CHECK(solution.results[0] == total_flow(feed));
-  CHECK(solution.results[1] == Approx(0.1).epsilon(1e-14));
-  CHECK(solution.results[2] == Approx(0.2).epsilon(1e-14));
-  CHECK(solution.results[3] == Approx(0.7).epsilon(1e-14));
-  for (std::size_t i = 4; i < 9; ++i) CHECK(std::isnan(solution.results[i]));
+  REQUIRE(solution.series.size() == 1);
+  CHECK(solution.series[0].x == std::vector<double>{1.0, 2.0, 3.0});
+  REQUIRE(solution.series[0].y.size() == 3);
+  CHECK(solution.series[0].y[0] == Approx(0.1).epsilon(1e-14));
+  CHECK(solution.series[0].y[1] == Approx(0.2).epsilon(1e-14));
+  CHECK(solution.series[0].y[2] == Approx(0.7).epsilon(1e-14));
+
+  // A flowsheet connecting another number of outlets than the fractions given is refused.
+  auto two = outlets_for(2);
+  try {
+    split(unit, feed, two);
+    FAIL("three fractions split into two outlets");
+  } catch (const host::SolveError& error) {
+    CHECK(error.status() == PFU_INVALID_PARAMETER);
+    CHECK_THAT(error.what(), Catch::Contains("2 outlets are connected, but the fractions fraction_1..fraction_3 are for 3"));
+  }
 }
 
 TEST_CASE("splitter: random feeds and fractions over 2 to 8 outlets close the balance to one ulp, cell by cell") {
@@ -156,7 +180,7 @@ TEST_CASE("splitter: random feeds and fractions over 2 to 8 outlets close the ba
     std::vector<double> weights(static_cast<std::size_t>(n));
     double weight_sum = 0.0;
     for (double& w : weights) weight_sum += (w = unit_interval(random));
-    std::vector<ParameterValue> parameters{{"outlets", static_cast<double>(n)}};
+    std::vector<ParameterValue> parameters;
     std::vector<double> fractions;
     double given = 0.0;
     for (int i = 0; i + 1 < n; ++i) {
@@ -169,8 +193,8 @@ TEST_CASE("splitter: random feeds and fractions over 2 to 8 outlets close the ba
 
     host::StreamState feed = stream(slate, 300.0, 1e5);
     for (double& f : feed.flows) f = unit_interval(random) < 0.3 ? 0.0 : std::exp(20.0 * unit_interval(random) - 12.0);
-    auto outlets = outlets_for();
-    unit.solve(std::span(&feed, 1), outlets);
+    auto outlets = outlets_for(static_cast<std::size_t>(n));
+    split(unit, feed, outlets);
     for (std::size_t k = 0; k < feed.flows.size(); ++k) {
       double sum = 0.0;
       for (int i = 0; i < n; ++i) sum += outlets[static_cast<std::size_t>(i)].flows[k];
@@ -196,12 +220,11 @@ TEST_CASE("splitter: random feeds and fractions over 2 to 8 outlets close the ba
 }
 
 TEST_CASE("splitter: outlet flows for all but the last, and the last takes the rest") {
-  auto unit = create_splitter({{"split_by", std::string("flows")}, {"outlets", 4.0}, {"flow_1", 10.0}, {"flow_2", 0.0}, {"flow_3", 25.0}},
-      slate);
+  auto unit = create_splitter({{"split_by", std::string("flows")}, {"flow_1", 10.0}, {"flow_2", 0.0}, {"flow_3", 25.0}}, slate);
   const host::StreamState feed = three_phase_feed();
   const double total = total_flow(feed);
-  auto outlets = outlets_for();
-  const host::Solution solution = unit.solve(std::span(&feed, 1), outlets);
+  auto outlets = outlets_for(4);
+  const host::Solution solution = split(unit, feed, outlets);
   CHECK(total_flow(outlets[0]) == Approx(10.0).epsilon(1e-14));
   CHECK(total_flow(outlets[1]) == 0.0);
   CHECK(total_flow(outlets[2]) == Approx(25.0).epsilon(1e-14));
@@ -212,14 +235,16 @@ TEST_CASE("splitter: outlet flows for all but the last, and the last takes the r
     CHECK(outlets[0].flows[k] == Approx(feed.flows[k] * 10.0 / total).epsilon(1e-15).margin(0.0));
   }
   CHECK(solution.results[0] == total);
-  CHECK(solution.results[1] == Approx(10.0 / total).epsilon(1e-14));
-  CHECK(solution.results[4] == Approx((total - 35.0) / total).epsilon(1e-14));
-  CHECK(std::isnan(solution.results[5]));
+  REQUIRE(solution.series[0].y.size() == 4);
+  CHECK(solution.series[0].y[0] == Approx(10.0 / total).epsilon(1e-14));
+  CHECK(solution.series[0].y[3] == Approx((total - 35.0) / total).epsilon(1e-14));
+
+  auto pair = outlets_for(2);
 
   // Asking for more than the feed has is refused at solve, naming both flows.
   auto greedy = create_splitter({{"split_by", std::string("flows")}, {"flow_1", 100.0}}, slate);
   try {
-    greedy.solve(std::span(&feed, 1), outlets);
+    split(greedy, feed, pair);
     FAIL("a flow above the feed was accepted");
   } catch (const host::SolveError& error) {
     CHECK(error.status() == PFU_INVALID_PARAMETER);
@@ -228,20 +253,19 @@ TEST_CASE("splitter: outlet flows for all but the last, and the last takes the r
 
   // Exactly the whole feed to outlet_1 leaves nothing, not a negative round-off, for the last.
   auto all = create_splitter({{"split_by", std::string("flows")}, {"flow_1", total}}, slate);
-  all.solve(std::span(&feed, 1), outlets);
+  split(all, feed, pair);
   for (std::size_t k = 0; k < feed.flows.size(); ++k) {
-    CHECK(outlets[1].flows[k] >= 0.0);
-    CHECK(outlets[0].flows[k] + outlets[1].flows[k] == Approx(feed.flows[k]).epsilon(1e-15).margin(0.0));
+    CHECK(pair[1].flows[k] >= 0.0);
+    CHECK(pair[0].flows[k] + pair[1].flows[k] == Approx(feed.flows[k]).epsilon(1e-15).margin(0.0));
   }
 }
 
 TEST_CASE("splitter: a feed with no flow gives outlets with no flow") {
   auto unit = create_splitter({{"fraction_1", 0.25}, {"fraction_2", 0.75}}, slate);
   const host::StreamState feed = stream(slate, 290.0, 1e5);
-  auto outlets = outlets_for();
-  const host::Solution solution = unit.solve(std::span(&feed, 1), outlets);
+  auto outlets = outlets_for(2);
+  const host::Solution solution = split(unit, feed, outlets);
   for (const auto& outlet : outlets) CHECK(total_flow(outlet) == 0.0);
   CHECK(solution.results[0] == 0.0);
-  CHECK(solution.results[1] == 0.25);
-  CHECK(solution.results[2] == 0.75);
+  CHECK(solution.series[0].y == std::vector<double>{0.25, 0.75});
 }

@@ -8,6 +8,8 @@
 #include <stdexcept>
 #include <unistd.h>
 
+#include "../support/temporary_directory.hpp"
+
 namespace units_test {
 
 host::StreamState stream(const host::Slate& slate, double temperature, double pressure) {
@@ -46,7 +48,8 @@ double total_flow(const host::StreamState& state) {
 }
 
 std::vector<double> run_python(const std::string& script) {
-  const auto path = std::filesystem::temp_directory_path() / ("protonflow-units-" + std::to_string(getpid()) + ".py");
+  const protonflow::test_support::TemporaryDirectory directory;  // the script's own, removed after
+  const auto path = directory.path() / "reference.py";
   std::ofstream(path) << script;
   const std::string command = std::string(UNITS_REFERENCE_PYTHON) + " " + path.string() + " 2>&1";
   FILE* pipe = popen(command.c_str(), "r");

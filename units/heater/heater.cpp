@@ -2,7 +2,7 @@
 
 #include <algorithm>
 
-#include "message_text.hpp"
+#include <protonflow/units/message_text.hpp>
 
 namespace protonflow::units {
 

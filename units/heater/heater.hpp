@@ -15,10 +15,10 @@
 #include <memory>
 #include <span>
 
-#include "equilibrium_stream.hpp"
-#include "phase_placement.hpp"
-#include "product_warnings.hpp"
-#include "stream_chemistry.hpp"
+#include <protonflow/units/equilibrium_stream.hpp>
+#include <protonflow/units/phase_placement.hpp>
+#include <protonflow/units/product_warnings.hpp>
+#include <protonflow/units/stream_chemistry.hpp>
 
 namespace protonflow::units {
 

@@ -3,7 +3,7 @@
 #include <algorithm>
 #include <string>
 
-#include "message_text.hpp"
+#include <protonflow/units/message_text.hpp>
 
 namespace protonflow::units {
 

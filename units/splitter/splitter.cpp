@@ -1,9 +1,8 @@
 // splitter: one feed divided among 2 to 8 outlets, every phase and every component in the same
 // proportion, temperature and pressure unchanged. Equations and limits: docs/units.md.
 //
-// The ABI fixes a class's ports, so the class declares eight outlets, the last six optional (ABI
-// 1.2): a flowsheet connects only those it uses; `outlets` says how many
-// are used, and the unused ones carry zero flow at the feed's temperature and pressure.
+// The outlets are one list port (unit ABI 1.3): a flowsheet connects as many branches as it
+// uses ('outlets: [recycle, bleed]'), and the parameters say how the feed is shared among them.
 #include <protonflow/unit_module.hpp>
 
 #include <array>
@@ -41,79 +40,62 @@ class Splitter {
   static constexpr const char* summary = "Divides one stream among 2 to 8 outlets in fixed proportion, all phases alike";
   static constexpr std::array ports{
       unit::inlet("feed", all_phases, "the stream to divide, any phases"),
-      unit::outlet("outlet_1", all_phases, "first branch"),
-      unit::outlet("outlet_2", all_phases, "second branch"),
-      unit::outlet("outlet_3", all_phases, "third branch; zero flow unless outlets >= 3; may stay unconnected", PFU_PORT_OPTIONAL),
-      unit::outlet("outlet_4", all_phases, "fourth branch; zero flow unless outlets >= 4; may stay unconnected", PFU_PORT_OPTIONAL),
-      unit::outlet("outlet_5", all_phases, "fifth branch; zero flow unless outlets >= 5; may stay unconnected", PFU_PORT_OPTIONAL),
-      unit::outlet("outlet_6", all_phases, "sixth branch; zero flow unless outlets >= 6; may stay unconnected", PFU_PORT_OPTIONAL),
-      unit::outlet("outlet_7", all_phases, "seventh branch; zero flow unless outlets >= 7; may stay unconnected", PFU_PORT_OPTIONAL),
-      unit::outlet("outlet_8", all_phases, "eighth branch; zero flow unless outlets = 8; may stay unconnected", PFU_PORT_OPTIONAL)};
+      unit::outlet_list("outlets", all_phases, 2, max_outlets, "the branches, 2 to 8, as a list: outlets: [a, b]")};
   static constexpr std::array<const char*, 2> split_modes{"fractions", "flows"};
   static constexpr std::array parameters{
-      unit::number("outlets", "1", 2.0, 2.0, 8.0, "number of outlets used, a whole number from 2 to 8"),
       unit::choice("split_by", split_modes, "fractions",
-                   "fractions: give fraction_i for every used outlet; flows: give flow_i for all but the last"),
-      unit::number("fraction_1", "1", 0.0, 0.0, 1.0, "share of the feed to outlet_1 (split_by fractions)"),
-      unit::number("fraction_2", "1", 0.0, 0.0, 1.0, "share of the feed to outlet_2 (split_by fractions)"),
-      unit::number("fraction_3", "1", 0.0, 0.0, 1.0, "share of the feed to outlet_3 (split_by fractions)"),
-      unit::number("fraction_4", "1", 0.0, 0.0, 1.0, "share of the feed to outlet_4 (split_by fractions)"),
-      unit::number("fraction_5", "1", 0.0, 0.0, 1.0, "share of the feed to outlet_5 (split_by fractions)"),
-      unit::number("fraction_6", "1", 0.0, 0.0, 1.0, "share of the feed to outlet_6 (split_by fractions)"),
-      unit::number("fraction_7", "1", 0.0, 0.0, 1.0, "share of the feed to outlet_7 (split_by fractions)"),
-      unit::number("fraction_8", "1", 0.0, 0.0, 1.0, "share of the feed to outlet_8 (split_by fractions)"),
-      unit::number("flow_1", "mol/s", 0.0, 0.0, unit::unbounded, "total molar flow to outlet_1, all phases (split_by flows)"),
-      unit::number("flow_2", "mol/s", 0.0, 0.0, unit::unbounded, "total molar flow to outlet_2, all phases (split_by flows)"),
-      unit::number("flow_3", "mol/s", 0.0, 0.0, unit::unbounded, "total molar flow to outlet_3, all phases (split_by flows)"),
-      unit::number("flow_4", "mol/s", 0.0, 0.0, unit::unbounded, "total molar flow to outlet_4, all phases (split_by flows)"),
-      unit::number("flow_5", "mol/s", 0.0, 0.0, unit::unbounded, "total molar flow to outlet_5, all phases (split_by flows)"),
-      unit::number("flow_6", "mol/s", 0.0, 0.0, unit::unbounded, "total molar flow to outlet_6, all phases (split_by flows)"),
-      unit::number("flow_7", "mol/s", 0.0, 0.0, unit::unbounded, "total molar flow to outlet_7, all phases (split_by flows)")};
+                   "fractions: give fraction_i for every outlet; flows: give flow_i for all but the last"),
+      unit::number("fraction_1", "1", 0.0, 0.0, 1.0, "share of the feed to the first outlet (split_by fractions)"),
+      unit::number("fraction_2", "1", 0.0, 0.0, 1.0, "share of the feed to the second outlet (split_by fractions)"),
+      unit::number("fraction_3", "1", 0.0, 0.0, 1.0, "share of the feed to the third outlet (split_by fractions)"),
+      unit::number("fraction_4", "1", 0.0, 0.0, 1.0, "share of the feed to the fourth outlet (split_by fractions)"),
+      unit::number("fraction_5", "1", 0.0, 0.0, 1.0, "share of the feed to the fifth outlet (split_by fractions)"),
+      unit::number("fraction_6", "1", 0.0, 0.0, 1.0, "share of the feed to the sixth outlet (split_by fractions)"),
+      unit::number("fraction_7", "1", 0.0, 0.0, 1.0, "share of the feed to the seventh outlet (split_by fractions)"),
+      unit::number("fraction_8", "1", 0.0, 0.0, 1.0, "share of the feed to the eighth outlet (split_by fractions)"),
+      unit::number("flow_1", "mol/s", 0.0, 0.0, unit::unbounded, "total molar flow to the first outlet, all phases (split_by flows)"),
+      unit::number("flow_2", "mol/s", 0.0, 0.0, unit::unbounded, "total molar flow to the second outlet (split_by flows)"),
+      unit::number("flow_3", "mol/s", 0.0, 0.0, unit::unbounded, "total molar flow to the third outlet (split_by flows)"),
+      unit::number("flow_4", "mol/s", 0.0, 0.0, unit::unbounded, "total molar flow to the fourth outlet (split_by flows)"),
+      unit::number("flow_5", "mol/s", 0.0, 0.0, unit::unbounded, "total molar flow to the fifth outlet (split_by flows)"),
+      unit::number("flow_6", "mol/s", 0.0, 0.0, unit::unbounded, "total molar flow to the sixth outlet (split_by flows)"),
+      unit::number("flow_7", "mol/s", 0.0, 0.0, unit::unbounded, "total molar flow to the seventh outlet (split_by flows)")};
   static constexpr std::array results{
-      unit::result("feed_flow", "mol/s", "total molar flow of the feed, all phases and components"),
-      unit::result("fraction_1", "1", "share of the feed sent to outlet_1"),
-      unit::result("fraction_2", "1", "share of the feed sent to outlet_2"),
-      unit::result("fraction_3", "1", "share of the feed sent to outlet_3; NaN if unused"),
-      unit::result("fraction_4", "1", "share of the feed sent to outlet_4; NaN if unused"),
-      unit::result("fraction_5", "1", "share of the feed sent to outlet_5; NaN if unused"),
-      unit::result("fraction_6", "1", "share of the feed sent to outlet_6; NaN if unused"),
-      unit::result("fraction_7", "1", "share of the feed sent to outlet_7; NaN if unused"),
-      unit::result("fraction_8", "1", "share of the feed sent to outlet_8; NaN if unused")};
+      unit::result("feed_flow", "mol/s", "total molar flow of the feed, all phases and components")};
+  static constexpr std::array series{unit::series("shares", "outlet", "1", "share", "1", max_outlets,
+                                                  "share of the feed sent to each outlet, by its place in the list")};
+
+  // The shares series holds one point per outlet, a number fixed by the parameters at create.
+  std::size_t series_length(std::size_t) const { return outlets_; }
 
   Splitter(const unit::Parameters& parameters, const unit::Slate&) {
-    const double count = parameters.number("outlets");
-    if (count != std::floor(count)) {
-      throw unit::UnitError(PFU_INVALID_PARAMETER, "unit 'splitter': parameter 'outlets' = " + number_text(count) +
-                                                       " is not a whole number");
-    }
-    outlets_ = static_cast<std::size_t>(count);
     by_fractions_ = parameters.text("split_by") == "fractions";
     const char* const own = by_fractions_ ? "fraction_" : "flow_";
     const char* const other = by_fractions_ ? "flow_" : "fraction_";
-    const std::size_t own_count = by_fractions_ ? outlets_ : outlets_ - 1;  // flows: the last takes the rest
     const std::size_t own_declared = by_fractions_ ? max_outlets : max_outlets - 1;
-    for (std::size_t i = 1; i <= max_outlets; ++i) {
-      const std::string mine = own + std::to_string(i);
-      const std::string theirs = other + std::to_string(i);
-      if (i <= own_declared) {
-        if (i <= own_count && !parameters.given(mine)) {
-          throw unit::UnitError(PFU_INVALID_PARAMETER,
-                                "unit 'splitter': split_by " + std::string(by_fractions_ ? "fractions" : "flows") +
-                                    " with " + std::to_string(outlets_) + " outlets needs parameter '" + mine + "'" +
-                                    (by_fractions_ ? "" : " (the last outlet takes the rest of the feed)"));
-        }
-        if (i > own_count && parameters.given(mine)) {
-          throw unit::UnitError(PFU_INVALID_PARAMETER, "unit 'splitter': parameter '" + mine + "' is given, but " +
-                                                           (by_fractions_ ? "only " + std::to_string(outlets_) +
-                                                                                " outlets are used"
-                                                                          : "with split_by flows outlet_" +
-                                                                                std::to_string(outlets_) +
-                                                                                " takes the rest and outlets beyond "
-                                                                                "it are unused"));
-        }
-        if (i <= own_count) given_[i - 1] = parameters.number(mine);
+    // The parameters given, fraction_1..fraction_n (or flow_1..flow_n-1), fix the outlets' number n.
+    std::size_t own_count = 0;
+    while (own_count < own_declared && parameters.given(own + std::to_string(own_count + 1))) ++own_count;
+    for (std::size_t i = own_count + 1; i <= own_declared; ++i) {
+      if (parameters.given(own + std::to_string(i))) {
+        throw unit::UnitError(PFU_INVALID_PARAMETER, "unit 'splitter': parameter '" + std::string(own) + std::to_string(i) +
+                                                         "' is given without '" + own + std::to_string(own_count + 1) +
+                                                         "'; give them from the first outlet on, one per outlet");
       }
-      if (i <= (by_fractions_ ? max_outlets - 1 : max_outlets) && parameters.given(theirs)) {
+    }
+    const std::size_t needed = by_fractions_ ? 2 : 1;
+    if (own_count < needed) {
+      throw unit::UnitError(PFU_INVALID_PARAMETER,
+                            "unit 'splitter': split_by " + std::string(by_fractions_ ? "fractions" : "flows") +
+                                " needs parameter '" + own + std::to_string(own_count + 1) + "'" +
+                                (by_fractions_ ? " (one fraction per outlet, at least two)"
+                                               : " (one flow per outlet but the last, which takes the rest)"));
+    }
+    outlets_ = by_fractions_ ? own_count : own_count + 1;
+    for (std::size_t i = 0; i < own_count; ++i) given_[i] = parameters.number(own + std::to_string(i + 1));
+    for (std::size_t i = 1; i <= (by_fractions_ ? max_outlets - 1 : max_outlets); ++i) {
+      const std::string theirs = other + std::to_string(i);
+      if (parameters.given(theirs)) {
         throw unit::UnitError(PFU_INVALID_PARAMETER, "unit 'splitter': parameter '" + theirs + "' does not apply with split_by " +
                                                          std::string(by_fractions_ ? "fractions" : "flows"));
       }
@@ -134,6 +116,13 @@ class Splitter {
   void solve(std::span<const unit::InletState> inlets, std::span<unit::OutletState> outlets, unit::Results& results,
              unit::Warnings&) const {
     const unit::InletState& feed = inlets[0];
+    if (outlets.size() != outlets_) {
+      throw unit::UnitError(PFU_INVALID_PARAMETER,
+                            "unit 'splitter': " + std::to_string(outlets.size()) + " outlets are connected, but the " +
+                                (by_fractions_ ? "fractions fraction_1..fraction_" + std::to_string(outlets_)
+                                               : "flows flow_1..flow_" + std::to_string(outlets_ - 1)) +
+                                " are for " + std::to_string(outlets_));
+    }
     double feed_flow = 0.0;
     for (const double flow : feed.flows) feed_flow += flow;
 
@@ -155,7 +144,7 @@ class Splitter {
       for (std::size_t i = 0; i + 1 < outlets_; ++i) share[i] = feed_flow > 0.0 ? given_[i] / feed_flow : 0.0;
     }
 
-    for (std::size_t i = 0; i < max_outlets; ++i) {
+    for (std::size_t i = 0; i < outlets_; ++i) {
       outlets[i].temperature = feed.temperature;
       outlets[i].pressure = feed.pressure;
     }
@@ -178,20 +167,21 @@ class Splitter {
         rest = 0.0;
       }
       outlets[last].flows[k] = rest;
-      for (std::size_t i = outlets_; i < max_outlets; ++i) outlets[i].flows[k] = 0.0;
     }
 
     results.set("feed_flow", feed_flow);
+    unit::Series& shares = results.series("shares");
     for (std::size_t i = 0; i < outlets_; ++i) {
       double flow = 0.0;
       for (const double f : outlets[i].flows) flow += f;
       // The share actually sent: the given one, or for the last outlet what is left (1 − the others).
-      results[1 + i] = feed_flow > 0.0 ? flow / feed_flow : (by_fractions_ ? given_[i] : (i == last ? 1.0 : 0.0));
+      shares.add(static_cast<double>(i + 1),
+                 feed_flow > 0.0 ? flow / feed_flow : (by_fractions_ ? given_[i] : (i == last ? 1.0 : 0.0)));
     }
   }
 
  private:
-  std::size_t outlets_ = 2;
+  std::size_t outlets_ = 2;  // fixed by the parameters given; the flowsheet must connect as many
   bool by_fractions_ = true;
   std::array<double, max_outlets> given_{};  // fractions (1) or flows (mol/s), in outlet order
 };

@@ -20,8 +20,10 @@ extern "C" {
 #endif
 
 /* Version of this header. A host loads a module whose major equals its own, whatever its minor:
- * a minor only appends fields at the ends of structs, so each side reads the fields both know. */
-enum { PFU_ABI_MAJOR = 1, PFU_ABI_MINOR = 2 };
+ * a minor only appends fields at the ends of structs, so each side reads the fields both know.
+ * What a later minor adds that a reader must understand is announced so a reader can refuse it by
+ * name: port flags it does not know, capabilities marked required (docs/unit-abi.md §2). */
+enum { PFU_ABI_MAJOR = 1, PFU_ABI_MINOR = 3 };
 
 /* Opens every struct, so a reader can check the version and the size before reading further. */
 typedef struct pfu_header {
@@ -54,8 +56,14 @@ enum { PFU_INLET = 1, PFU_OUTLET = 2 };
 
 /* Port flags (since 1.2). An optional port may be left unconnected: the host then passes an
  * optional inlet with no flow, and refuses a solve that puts flow into an unconnected optional
- * outlet (nothing may be lost). */
-enum { PFU_PORT_OPTIONAL = 1 };
+ * outlet (nothing may be lost). A list port (since 1.3) takes from min_streams to max_streams
+ * streams, which the host connects as a list and passes one after another in the port's place. A
+ * reader refuses a port with a flag outside PFU_PORT_KNOWN_FLAGS of its own header. */
+enum { PFU_PORT_OPTIONAL = 1, PFU_PORT_LIST = 2 };
+enum { PFU_PORT_KNOWN_FLAGS = PFU_PORT_OPTIONAL | PFU_PORT_LIST };
+
+/* max_streams of a list port without an upper bound. */
+enum { PFU_UNBOUNDED_STREAMS = 0x7FFFFFFF };
 
 /* Parameter kinds. A choice is a text restricted to a published list (since 1.1). */
 enum { PFU_NUMBER = 1, PFU_TEXT = 2, PFU_CHOICE = 3 };
@@ -69,6 +77,9 @@ typedef struct pfu_port {
   uint32_t phases;     /* PFU_PHASE_* bits: phases an inlet accepts, or an outlet may carry */
   /* since 1.2 */
   uint32_t flags;      /* PFU_PORT_* bits */
+  /* since 1.3 */
+  uint32_t min_streams; /* list port: fewest streams (0: it may stay unconnected); otherwise unused */
+  uint32_t max_streams; /* list port: most streams, >= max(min_streams, 1), or PFU_UNBOUNDED_STREAMS */
 } pfu_port;
 
 /* A parameter a unit accepts at create. Bounds are inclusive; a number in SI units only. */
@@ -95,8 +106,57 @@ typedef struct pfu_result {
   const char* meaning; /* one line */
 } pfu_result;
 
+/* A named series a unit fills at each solve (since 1.3): points (x, y) such as a titration curve
+ * or a column profile. Declared through the series capability below. */
+typedef struct pfu_series {
+  pfu_header header;
+  const char* name;    /* unique among the class's series, e.g. "mixing_path" */
+  const char* meaning; /* one line */
+  const char* x_name;  /* e.g. "acid_fraction" */
+  const char* x_unit;  /* UDUNITS-2 string of the SI unit; "1" if dimensionless */
+  const char* y_name;  /* e.g. "temperature" */
+  const char* y_unit;
+  uint32_t max_points; /* the most points any instance fills, >= 1 */
+} pfu_series;
+
 /* The opaque state of one unit instance; only its module knows what it holds. */
 typedef struct pfu_instance pfu_instance;
+
+/* Capabilities (since 1.3): what a class offers beyond the fields of pfu_unit_class, each a struct
+ * that begins with pfu_capability and is found by its id. A host reads those it knows (by
+ * struct_size, like any struct) and ignores the others, unless one is flagged required: then it
+ * refuses the class, naming the capability. New features come as new ids, so neither side needs
+ * the other's minor to know them. */
+enum { PFU_CAPABILITY_REQUIRED = 1 };
+enum { PFU_CAPABILITY_SERIES = 1 };
+
+typedef struct pfu_capability {
+  pfu_header header; /* struct_size: of the whole capability struct it opens */
+  uint32_t id;       /* PFU_CAPABILITY_* */
+  uint32_t flags;    /* PFU_CAPABILITY_REQUIRED: a host that does not know id must not use the class */
+  const char* name;  /* for messages, e.g. "series" */
+} pfu_capability;
+
+/* Points an instance fills in series series_index at every solve, fixed when it is created and at
+ * most that series' max_points. */
+typedef uint32_t (*pfu_series_length_fn)(const pfu_instance* instance, uint32_t series_index);
+
+/* PFU_CAPABILITY_SERIES: the series a class fills at solve. */
+typedef struct pfu_series_capability {
+  pfu_capability capability;     /* id PFU_CAPABILITY_SERIES */
+  uint32_t series_count;
+  const pfu_series* series;      /* stepped through by each element's struct_size */
+  pfu_series_length_fn length;   /* NULL: every instance fills up to max_points */
+} pfu_series_capability;
+
+/* Where a solve writes one series: owned by the caller, like every buffer. */
+typedef struct pfu_series_buffer {
+  pfu_header header;
+  uint32_t capacity; /* points x and y each hold: at least the instance's length for this series */
+  uint32_t count;    /* written by the module: points filled, at most capacity */
+  double* x;
+  double* y;
+} pfu_series_buffer;
 
 /* The components and solid phases every stream of an instance carries, agreed once at create. */
 typedef struct pfu_slate {
@@ -139,6 +199,30 @@ typedef pfu_status (*pfu_solve_fn)(pfu_instance* instance, const pfu_stream_stat
 /* Frees an instance; NULL is ignored. */
 typedef void (*pfu_destroy_fn)(pfu_instance* instance);
 
+/* Everything one solve takes and gives (since 1.3), in one struct that later minors extend at its
+ * end. Streams are passed port by port in port order: inlet_counts[p] streams for the p-th inlet
+ * port (one for a plain port, the connected list for a list port), likewise for outlets. */
+typedef struct pfu_solve_call {
+  pfu_header header;
+  const pfu_stream_state* const* inlets; /* inlet_count streams, port by port */
+  pfu_stream_state* const* outlets;      /* outlet_count streams, port by port */
+  const uint32_t* inlet_counts;          /* one per inlet port; they add up to inlet_count */
+  const uint32_t* outlet_counts;         /* one per outlet port; they add up to outlet_count */
+  uint32_t inlet_count;
+  uint32_t outlet_count;
+  double* results;                       /* result_count doubles, in declared order */
+  uint32_t result_count;
+  uint32_t series_count;                 /* the class's series count, or 0: fill none */
+  pfu_series_buffer* const* series;      /* one per declared series, in declared order */
+  char* warnings;
+  size_t warnings_capacity;
+  char* message;
+  size_t message_capacity;
+} pfu_solve_call;
+
+/* The solve of 1.3 on; inlets are never written; the warnings and message as for pfu_solve_fn. */
+typedef pfu_status (*pfu_solve_call_fn)(pfu_instance* instance, const pfu_solve_call* call);
+
 /* A kind of unit a module offers: its self-description and its three functions. */
 typedef struct pfu_unit_class {
   pfu_header header;
@@ -151,8 +235,12 @@ typedef struct pfu_unit_class {
   const pfu_parameter* parameters; /* a host steps through these arrays by each element's struct_size */
   const pfu_result* results;       /* solve writes results[i] for the i-th of these */
   pfu_create_fn create;
-  pfu_solve_fn solve;
+  pfu_solve_fn solve;       /* one stream per port and no series; the only solve a 1.2 host calls */
   pfu_destroy_fn destroy;
+  /* since 1.3 */
+  pfu_solve_call_fn solve_call;              /* list ports and series; a 1.3 host calls it when present */
+  uint32_t capability_count;
+  const pfu_capability* const* capabilities; /* each points to a struct that opens with pfu_capability */
 } pfu_unit_class;
 
 /* What a module's entry symbol returns: the module's name and version and its unit classes. */

@@ -5,6 +5,7 @@
 //   for (const auto& unit_class : module.classes()) std::cout << unit_class.type << "\n";
 //   auto instance = module.create("heater", {{"temperature", 320.0}}, slate);  // throws CreateError
 //   auto solution = instance.solve(inlets, outlets);                         // throws SolveError
+//   auto listed = instance.solve(inlets, {3, 1}, outlets, {1});   // list ports: streams per port
 //
 // A Module is a cheap shared handle; the library stays loaded while a Module or an Instance made
 // from it lives. Copying descriptors into strings means nothing here points into the module but
@@ -16,6 +17,7 @@
 #include <boost/dll/shared_library.hpp>
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <cstddef>
 #include <cstdint>
@@ -64,6 +66,20 @@ struct PortInfo {
   bool inlet;
   std::uint32_t phases;  // PFU_PHASE_* bits
   bool optional = false; // may be left unconnected (ABI 1.2; false for older modules)
+  bool list = false;     // takes min_streams to max_streams streams (ABI 1.3; false for older modules)
+  std::uint32_t min_streams = 1;
+  std::uint32_t max_streams = 1;  // PFU_UNBOUNDED_STREAMS: no limit
+};
+
+// A series a class fills at each solve (ABI 1.3).
+struct SeriesInfo {
+  std::string name;
+  std::string meaning;
+  std::string x_name;
+  std::string x_unit;  // UDUNITS-2, SI
+  std::string y_name;
+  std::string y_unit;
+  std::uint32_t max_points = 0;
 };
 
 struct ParameterInfo {
@@ -96,7 +112,9 @@ struct UnitClassInfo {
   std::vector<PortInfo> ports;
   std::vector<ParameterInfo> parameters;
   std::vector<ResultInfo> results;
+  std::vector<SeriesInfo> series;  // empty for modules older than ABI 1.3
 
+  // Ports of each direction, not streams: a list port counts once.
   std::size_t inlet_count() const { return static_cast<std::size_t>(std::ranges::count(ports, true, &PortInfo::inlet)); }
   std::size_t outlet_count() const { return ports.size() - inlet_count(); }
 };
@@ -125,16 +143,33 @@ struct ParameterValue {
   std::variant<double, std::string> value;
 };
 
+// One series as a solve filled it.
+struct SeriesValues {
+  std::vector<double> x;
+  std::vector<double> y;
+};
+
 // What one solve reports besides its outlets.
 struct Solution {
   std::vector<double> results;        // in the class's declared order
   std::vector<std::string> warnings;  // one line each
+  std::vector<SeriesValues> series;   // in the class's declared order
 };
 
 namespace detail {
 
 inline std::string version_text(unsigned major, unsigned minor) {
   return std::to_string(major) + "." + std::to_string(minor);
+}
+
+inline std::string hex_text(std::uint32_t value) {
+  std::array<char, 8> digits{};
+  std::size_t first = digits.size();
+  do {
+    digits[--first] = "0123456789abcdef"[value % 16];
+    value /= 16;
+  } while (value != 0 && first > 0);
+  return std::string(digits.data() + first, digits.size() - first);
 }
 
 // Bytes this host must be able to read from a struct whose header says minor: the whole struct,
@@ -146,8 +181,35 @@ constexpr std::size_t minimum_size(unsigned minor) {
   }
   if constexpr (std::is_same_v<T, pfu_port>) {
     if (minor < 2) return offsetof(pfu_port, flags);
+    if (minor < 3) return offsetof(pfu_port, min_streams);
+  }
+  if constexpr (std::is_same_v<T, pfu_unit_class>) {
+    if (minor < 3) return offsetof(pfu_unit_class, solve_call);
   }
   return sizeof(T);
+}
+
+// Zeroes the fields a struct of an earlier minor did not have (what a copy of its struct_size
+// bytes put there is padding, or nothing).
+template <class T>
+void clear_later_fields(T& value, unsigned minor) {
+  if constexpr (std::is_same_v<T, pfu_parameter>) {
+    if (minor < 1) {
+      value.choice_count = 0;
+      value.choices = nullptr;
+    }
+  }
+  if constexpr (std::is_same_v<T, pfu_port>) {
+    if (minor < 2) value.flags = 0;
+    if (minor < 3) value.min_streams = value.max_streams = 0;
+  }
+  if constexpr (std::is_same_v<T, pfu_unit_class>) {
+    if (minor < 3) {
+      value.solve_call = nullptr;
+      value.capability_count = 0;
+      value.capabilities = nullptr;
+    }
+  }
 }
 
 // Reads a struct of any minor of our major: the fields both sides know, zero for the rest.
@@ -168,6 +230,7 @@ T read_struct(const void* address, const std::string& file, const std::string& w
   }
   T value{};
   std::memcpy(&value, address, std::min<std::size_t>(header.struct_size, sizeof(T)));
+  clear_later_fields(value, header.abi_minor);
   return value;
 }
 
@@ -205,6 +268,38 @@ inline PortInfo read_port(const pfu_port& port, const std::string& file, const s
   if (port.direction != PFU_INLET && port.direction != PFU_OUTLET) {
     throw LoadError(file + ": " + what + " has direction " + std::to_string(port.direction) + ", neither inlet nor outlet");
   }
+  // A flag of a later minor asks something of the host that this host cannot guess: refuse it.
+  const std::uint32_t unknown = port.flags & ~static_cast<std::uint32_t>(PFU_PORT_KNOWN_FLAGS);
+  if (unknown != 0) {
+    throw LoadError(file + ": " + what + " has port flags 0x" + hex_text(unknown) + " unknown to unit ABI " +
+                    version_text(PFU_ABI_MAJOR, PFU_ABI_MINOR) + "; it needs a newer host");
+  }
+  if ((port.flags & PFU_PORT_LIST) != 0) {
+    info.list = true;
+    info.min_streams = port.min_streams;
+    info.max_streams = port.max_streams;
+    if (info.optional) {
+      throw LoadError(file + ": " + what + " is both optional and a list; a list port says by min_streams 0 that it may stay unconnected");
+    }
+    if (port.max_streams < 1 || port.max_streams < port.min_streams || port.max_streams > PFU_UNBOUNDED_STREAMS) {
+      throw LoadError(file + ": " + what + " is a list port of " + std::to_string(port.min_streams) + " to " +
+                      std::to_string(port.max_streams) + " streams; max_streams must be at least 1 and min_streams");
+    }
+  }
+  return info;
+}
+
+inline SeriesInfo read_series(const pfu_series& series, const std::string& file, const std::string& where) {
+  SeriesInfo info;
+  info.name = required_text(series.name, file, where + " series name");
+  const std::string what = where + " series '" + info.name + "'";
+  info.meaning = required_text(series.meaning, file, what + " meaning");
+  info.x_name = required_text(series.x_name, file, what + " x name");
+  info.x_unit = required_text(series.x_unit, file, what + " x unit");
+  info.y_name = required_text(series.y_name, file, what + " y name");
+  info.y_unit = required_text(series.y_unit, file, what + " y unit");
+  info.max_points = series.max_points;
+  if (info.max_points < 1) throw LoadError(file + ": " + what + " has max_points 0");
   return info;
 }
 
@@ -249,6 +344,8 @@ struct LoadedModule {
     pfu_create_fn create;
     pfu_solve_fn solve;
     pfu_destroy_fn destroy;
+    pfu_solve_call_fn solve_call;          // ABI 1.3; null for older modules
+    pfu_series_length_fn series_length;    // null: every series up to its max_points
   };
 
   boost::dll::shared_library library;  // first member, so it is unloaded last
@@ -319,8 +416,40 @@ inline std::shared_ptr<const LoadedModule> load(const std::filesystem::path& fil
       info.results.push_back(
           {result_name, required_text(result.unit, name, what + " unit"), required_text(result.meaning, name, what + " meaning")});
     }
+    // Capabilities (ABI 1.3): read those this host knows, refuse an unknown one the class requires.
+    pfu_series_length_fn series_length = nullptr;
+    if (raw.capability_count > 0 && raw.capabilities == nullptr) {
+      throw LoadError(name + ": " + where + " has " + std::to_string(raw.capability_count) + " capabilities at a null address");
+    }
+    for (std::uint32_t c = 0; c < raw.capability_count; ++c) {
+      const std::string item = where + " capability " + std::to_string(c + 1);
+      if (raw.capabilities[c] == nullptr) throw LoadError(name + ": " + item + " is null");
+      const pfu_capability capability = read_struct<pfu_capability>(raw.capabilities[c], name, item);
+      std::string label = "without a name";
+      if (capability.name != nullptr) label = std::string("'").append(capability.name).append("'");
+      if (capability.id == PFU_CAPABILITY_SERIES) {
+        const pfu_series_capability series = read_struct<pfu_series_capability>(raw.capabilities[c], name, item);
+        for (const pfu_series& s : read_array(series.series, series.series_count, name, where + " series")) {
+          info.series.push_back(read_series(s, name, where));
+        }
+        series_length = series.length;
+      } else if ((capability.flags & PFU_CAPABILITY_REQUIRED) != 0) {
+        throw LoadError(name + ": " + where + " needs capability " + label + " (id " + std::to_string(capability.id) +
+                        "), which unit ABI " + version_text(PFU_ABI_MAJOR, PFU_ABI_MINOR) +
+                        " does not know; it needs a newer host");
+      }
+    }
+    for (std::size_t s = 0; s < info.series.size(); ++s) {
+      for (std::size_t t = 0; t < s; ++t) {
+        if (info.series[s].name == info.series[t].name) throw LoadError(name + ": " + where + " declares series '" + info.series[s].name + "' twice");
+      }
+    }
+    const bool lists = std::ranges::any_of(info.ports, &PortInfo::list);
+    if (raw.solve_call == nullptr && (lists || !info.series.empty())) {
+      throw LoadError(name + ": " + where + " has list ports or series but no solve_call");
+    }
     module->classes.push_back(std::move(info));
-    module->functions.push_back({raw.create, raw.solve, raw.destroy});
+    module->functions.push_back({raw.create, raw.solve, raw.destroy, raw.solve_call, series_length});
   }
   return module;
 }
@@ -362,13 +491,78 @@ class Instance {
   const UnitClassInfo& unit_class() const { return module_->classes[index_]; }
   const Slate& slate() const noexcept { return slate_; }
 
-  // Solves once; outlets are resized to the slate. Throws SolveError for a non-ok status.
+  // Points the instance fills in each of its class's series at every solve, fixed at create.
+  const std::vector<std::uint32_t>& series_lengths() const noexcept { return series_lengths_; }
+
+  // Solves once with one stream per port; outlets are resized to the slate. Throws SolveError for
+  // a non-ok status.
   Solution solve(std::span<const StreamState> inlets, std::span<StreamState> outlets) {
     const UnitClassInfo& info = unit_class();
     if (inlets.size() != info.inlet_count() || outlets.size() != info.outlet_count()) {
       throw std::invalid_argument("unit '" + info.type + "' takes " + std::to_string(info.inlet_count()) + " inlets and " +
                                   std::to_string(info.outlet_count()) + " outlets");
     }
+    inlet_counts_.assign(info.inlet_count(), 1);
+    outlet_counts_.assign(info.outlet_count(), 1);
+    return solve_streams(inlets, outlets);
+  }
+
+  // Solves once with the streams of each port one after another, port by port: inlet_counts[p]
+  // streams for the p-th inlet port (list ports take their bounds, other ports one), likewise for
+  // outlets. Throws std::invalid_argument for counts the class does not take.
+  Solution solve(std::span<const StreamState> inlets, std::span<const std::uint32_t> inlet_counts,
+                 std::span<StreamState> outlets, std::span<const std::uint32_t> outlet_counts) {
+    const UnitClassInfo& info = unit_class();
+    check_counts(true, inlet_counts, inlets.size());
+    check_counts(false, outlet_counts, outlets.size());
+    inlet_counts_.assign(inlet_counts.begin(), inlet_counts.end());
+    outlet_counts_.assign(outlet_counts.begin(), outlet_counts.end());
+    const bool one_each = std::ranges::all_of(inlet_counts_, [](std::uint32_t n) { return n == 1; }) &&
+                          std::ranges::all_of(outlet_counts_, [](std::uint32_t n) { return n == 1; });
+    if (module_->functions[index_].solve_call == nullptr && !one_each) {
+      throw std::invalid_argument("unit '" + info.type + "' is of unit ABI " +
+                                  detail::version_text(module_->abi_major, module_->abi_minor) +
+                                  ", which passes one stream per port");
+    }
+    return solve_streams(inlets, outlets);
+  }
+
+ private:
+  friend class Module;
+  Instance() = default;
+
+  void check_counts(bool inlet, std::span<const std::uint32_t> counts, std::size_t streams) const {
+    const UnitClassInfo& info = unit_class();
+    const std::string kind = inlet ? "inlet" : "outlet";
+    const std::size_t ports = inlet ? info.inlet_count() : info.outlet_count();
+    if (counts.size() != ports) {
+      throw std::invalid_argument("unit '" + info.type + "' has " + std::to_string(ports) + " " + kind + " ports; " +
+                                  std::to_string(counts.size()) + " stream counts were given");
+    }
+    std::size_t total = 0;
+    std::size_t p = 0;
+    for (const PortInfo& port : info.ports) {
+      if (port.inlet != inlet) continue;
+      const std::uint32_t n = counts[p++];
+      total += n;
+      const std::uint32_t low = port.list ? port.min_streams : 1;
+      const std::uint32_t high = port.list ? port.max_streams : 1;
+      if (n < low || n > high) {
+        throw std::invalid_argument("port '" + port.name + "' of unit '" + info.type + "' takes " +
+                                    (low == high ? std::to_string(low)
+                                                 : std::to_string(low) + " to " +
+                                                       (high == PFU_UNBOUNDED_STREAMS ? "any number of" : std::to_string(high))) +
+                                    " streams, not " + std::to_string(n));
+      }
+    }
+    if (total != streams) {
+      throw std::invalid_argument("the " + kind + " counts of unit '" + info.type + "' add up to " + std::to_string(total) +
+                                  " streams; " + std::to_string(streams) + " were given");
+    }
+  }
+
+  Solution solve_streams(std::span<const StreamState> inlets, std::span<StreamState> outlets) {
+    const UnitClassInfo& info = unit_class();
     const auto state = [&](const StreamState& stream) {
       // The ABI promises that a module never writes through an inlet's flows.
       return pfu_stream_state{detail::header_for<pfu_stream_state>(), stream.temperature, stream.pressure,
@@ -393,30 +587,63 @@ class Instance {
     for (const pfu_stream_state& s : inlet_states_) inlet_pointers_.push_back(&s);
     for (pfu_stream_state& s : outlet_states_) outlet_pointers_.push_back(&s);
 
-    Solution solution{std::vector<double>(info.results.size()), {}};
+    Solution solution{std::vector<double>(info.results.size()), {}, std::vector<SeriesValues>(info.series.size())};
+    series_buffers_.clear();
+    series_pointers_.clear();
+    for (std::size_t i = 0; i < info.series.size(); ++i) {
+      solution.series[i].x.assign(series_lengths_[i], 0.0);
+      solution.series[i].y.assign(series_lengths_[i], 0.0);
+      series_buffers_.push_back({detail::header_for<pfu_series_buffer>(), series_lengths_[i], 0, solution.series[i].x.data(),
+                                 solution.series[i].y.data()});
+    }
+    for (pfu_series_buffer& buffer : series_buffers_) series_pointers_.push_back(&buffer);
+    const detail::LoadedModule::Functions& functions = module_->functions[index_];
     pfu_status status = PFU_BUFFER_TOO_SMALL;
     // A solve is repeatable, so warnings that did not fit are had by solving again with more room.
     for (int attempt = 0; attempt < 16 && status == PFU_BUFFER_TOO_SMALL; ++attempt) {
       if (attempt > 0) warnings_.resize(warnings_.size() * 2);
-      status = module_->functions[index_].solve(
-          handle_, inlet_pointers_.data(), static_cast<std::uint32_t>(inlet_pointers_.size()), outlet_pointers_.data(),
-          static_cast<std::uint32_t>(outlet_pointers_.size()), solution.results.data(),
-          static_cast<std::uint32_t>(solution.results.size()), warnings_.data(), warnings_.size(), message_.data(),
-          message_.size());
+      if (functions.solve_call != nullptr) {
+        const pfu_solve_call call{detail::header_for<pfu_solve_call>(),
+                                  inlet_pointers_.data(),
+                                  outlet_pointers_.data(),
+                                  inlet_counts_.data(),
+                                  outlet_counts_.data(),
+                                  static_cast<std::uint32_t>(inlet_pointers_.size()),
+                                  static_cast<std::uint32_t>(outlet_pointers_.size()),
+                                  solution.results.data(),
+                                  static_cast<std::uint32_t>(solution.results.size()),
+                                  static_cast<std::uint32_t>(series_pointers_.size()),
+                                  series_pointers_.data(),
+                                  warnings_.data(),
+                                  warnings_.size(),
+                                  message_.data(),
+                                  message_.size()};
+        status = functions.solve_call(handle_, &call);
+      } else {
+        status = functions.solve(handle_, inlet_pointers_.data(), static_cast<std::uint32_t>(inlet_pointers_.size()),
+                                 outlet_pointers_.data(), static_cast<std::uint32_t>(outlet_pointers_.size()),
+                                 solution.results.data(), static_cast<std::uint32_t>(solution.results.size()),
+                                 warnings_.data(), warnings_.size(), message_.data(), message_.size());
+      }
     }
     if (status != PFU_OK) throw SolveError(status, message_text(std::string("solve failed: ") + pfu_status_name(status)));
     for (std::size_t i = 0; i < outlets.size(); ++i) {
       outlets[i].temperature = outlet_states_[i].temperature;
       outlets[i].pressure = outlet_states_[i].pressure;
     }
+    for (std::size_t i = 0; i < series_buffers_.size(); ++i) {
+      const std::uint32_t count = series_buffers_[i].count;
+      if (count > series_lengths_[i]) {
+        throw SolveError(PFU_INTERNAL_ERROR, "unit '" + info.type + "' wrote " + std::to_string(count) + " points into series '" +
+                                                 info.series[i].name + "', which holds " + std::to_string(series_lengths_[i]));
+      }
+      solution.series[i].x.resize(count);
+      solution.series[i].y.resize(count);
+    }
     solution.warnings = detail::split_lines(
         std::string_view(warnings_.data(), std::find(warnings_.begin(), warnings_.end(), '\0') - warnings_.begin()));
     return solution;
   }
-
- private:
-  friend class Module;
-  Instance() = default;
 
   void swap(Instance& other) noexcept {
     std::swap(module_, other.module_);
@@ -429,6 +656,11 @@ class Instance {
     std::swap(outlet_pointers_, other.outlet_pointers_);
     std::swap(message_, other.message_);
     std::swap(warnings_, other.warnings_);
+    std::swap(series_lengths_, other.series_lengths_);
+    std::swap(inlet_counts_, other.inlet_counts_);
+    std::swap(outlet_counts_, other.outlet_counts_);
+    std::swap(series_buffers_, other.series_buffers_);
+    std::swap(series_pointers_, other.series_pointers_);
   }
 
   // The module's message; a module that forgot the terminating NUL is cut at the buffer's end.
@@ -448,6 +680,11 @@ class Instance {
   std::vector<pfu_stream_state*> outlet_pointers_;
   std::vector<char> message_;   // sized by Module::create, so a move allocates nothing
   std::vector<char> warnings_;
+  std::vector<std::uint32_t> series_lengths_;  // per declared series, read at create
+  std::vector<std::uint32_t> inlet_counts_;
+  std::vector<std::uint32_t> outlet_counts_;
+  std::vector<pfu_series_buffer> series_buffers_;
+  std::vector<pfu_series_buffer*> series_pointers_;
 };
 
 // A checked unit module. Copies share one loaded library.
@@ -510,6 +747,15 @@ class Module {
         instance.message_.size());
     if (instance.handle_ == nullptr) {
       throw CreateError(instance.message_text("unit '" + info->type + "' refused to be created and said nothing"));
+    }
+    const pfu_series_length_fn length = module_->functions[instance.index_].series_length;
+    for (std::uint32_t i = 0; i < info->series.size(); ++i) {
+      const std::uint32_t points = length != nullptr ? length(instance.handle_, i) : info->series[i].max_points;
+      if (points > info->series[i].max_points) {
+        throw CreateError("unit '" + info->type + "' asks for " + std::to_string(points) + " points in series '" +
+                          info->series[i].name + "', declared with at most " + std::to_string(info->series[i].max_points));
+      }
+      instance.series_lengths_.push_back(points);
     }
     return instance;
   }

@@ -13,6 +13,13 @@
 //   };
 //   PROTONFLOW_EXPORT_UNITS("my-units", "0.1.0", Heater)
 //
+// A port that takes a list of streams (ABI 1.3) is declared with inlet_list or outlet_list; its
+// streams arrive one after another in the port's place, and on_port(inlets, port_index(ports,
+// "feed")) gives them. A class that fills series declares `static constexpr std::array series{...}`
+// (unit::series) and may give `std::size_t series_length(std::size_t index) const` to fix, at
+// create, how many points an instance fills (else up to max_points); solve fills them through
+// results.series("name").add(x, y).
+//
 // The boundary checks parameters against their declarations (kind, bounds, choices, required)
 // and inlets against their ports (shape, finite, positive T and P, non-negative flows, phases)
 // before the unit sees them; it fills outlets and results with NaN and rejects an outlet the unit
@@ -32,12 +39,14 @@
 #include <cstring>
 #include <exception>
 #include <limits>
+#include <memory>
 #include <new>
 #include <optional>
 #include <span>
 #include <stdexcept>
 #include <string>
 #include <string_view>
+#include <type_traits>
 #include <utility>
 #include <vector>
 
@@ -64,10 +73,34 @@ constexpr pfu_header header_for() {
 
 // Port, parameter and result declarations, for the static arrays of a unit class.
 constexpr pfu_port inlet(const char* name, std::uint32_t phases, const char* meaning, std::uint32_t flags = 0) {
-  return {header_for<pfu_port>(), name, meaning, PFU_INLET, phases, flags};
+  return {header_for<pfu_port>(), name, meaning, PFU_INLET, phases, flags, 0, 0};
 }
 constexpr pfu_port outlet(const char* name, std::uint32_t phases, const char* meaning, std::uint32_t flags = 0) {
-  return {header_for<pfu_port>(), name, meaning, PFU_OUTLET, phases, flags};
+  return {header_for<pfu_port>(), name, meaning, PFU_OUTLET, phases, flags, 0, 0};
+}
+// Ports that take from min_streams to max_streams streams (PFU_UNBOUNDED_STREAMS: no limit).
+constexpr pfu_port inlet_list(const char* name, std::uint32_t phases, std::uint32_t min_streams, std::uint32_t max_streams,
+                              const char* meaning) {
+  return {header_for<pfu_port>(), name, meaning, PFU_INLET, phases, PFU_PORT_LIST, min_streams, max_streams};
+}
+constexpr pfu_port outlet_list(const char* name, std::uint32_t phases, std::uint32_t min_streams,
+                               std::uint32_t max_streams, const char* meaning) {
+  return {header_for<pfu_port>(), name, meaning, PFU_OUTLET, phases, PFU_PORT_LIST, min_streams, max_streams};
+}
+// A series of at most max_points points (x, y), each in its SI unit.
+constexpr pfu_series series(const char* name, const char* x_name, const char* x_unit, const char* y_name,
+                            const char* y_unit, std::uint32_t max_points, const char* meaning) {
+  return {header_for<pfu_series>(), name, meaning, x_name, x_unit, y_name, y_unit, max_points};
+}
+
+// The index of the port called name among ports (a class's `ports` array); at compile time, a
+// name that is not there does not compile.
+template <class Ports>
+constexpr std::size_t port_index(const Ports& ports, std::string_view name) {
+  for (std::size_t i = 0; i < std::size(ports); ++i) {
+    if (name == ports[i].name) return i;
+  }
+  throw std::logic_error("no such port");
 }
 constexpr pfu_parameter number(const char* name, const char* unit, double default_value, double lower, double upper,
                                const char* meaning) {
@@ -150,6 +183,7 @@ struct InletState {
   double pressure;     // Pa
   std::size_t component_count;
   std::span<const double> flows;
+  std::size_t port = 0;  // index in the class's ports of the port it came in by
 
   std::span<const double> phase(std::size_t row) const { return flows.subspan(row * component_count, component_count); }
   double flow(std::size_t row, std::size_t component) const { return flows[row * component_count + component]; }
@@ -161,15 +195,60 @@ struct OutletState {
   double pressure;     // Pa
   std::size_t component_count;
   std::span<double> flows;
+  std::size_t port = 0;  // index in the class's ports of the port it leaves by
 
   std::span<double> phase(std::size_t row) const { return flows.subspan(row * component_count, component_count); }
   double& flow(std::size_t row, std::size_t component) const { return flows[row * component_count + component]; }
 };
 
+// The streams of one port: they come one after another in port order (a plain port has one).
+template <class State>
+std::span<State> on_port(std::span<State> streams, std::size_t port) {
+  const auto first = std::ranges::find(streams, port, &std::remove_cv_t<State>::port);
+  const auto last = std::find_if(first, streams.end(), [port](const auto& s) { return s.port != port; });
+  return {first, last};
+}
+
+// One series a solve fills, point by point, into memory the host owns.
+class Series {
+ public:
+  Series() = default;
+  Series(const char* name, std::span<double> x, std::span<double> y) : name_(name), x_(x), y_(y) {}
+
+  // Appends a point; more points than the instance's length is a fault of the unit.
+  void add(double x, double y) {
+    if (count_ == x_.size()) {
+      throw std::logic_error(std::string("series '") + name_ + "' is full at " + std::to_string(count_) + " points");
+    }
+    x_[count_] = x;
+    y_[count_] = y;
+    ++count_;
+  }
+  void clear() noexcept { count_ = 0; }
+  std::size_t size() const noexcept { return count_; }
+  std::size_t capacity() const noexcept { return x_.size(); }
+  const char* name() const noexcept { return name_; }
+
+ private:
+  const char* name_ = "";
+  std::span<double> x_;
+  std::span<double> y_;
+  std::size_t count_ = 0;
+};
+
 // The declared results of one solve, in declaration order; NaN marks one that does not apply.
 class Results {
  public:
-  Results(std::span<const pfu_result> declared, std::span<double> values) : declared_(declared), values_(values) {}
+  Results(std::span<const pfu_result> declared, std::span<double> values, std::span<Series> series = {})
+      : declared_(declared), values_(values), series_(series) {}
+
+  // A declared series by name; throws std::logic_error for an undeclared one.
+  Series& series(std::string_view name) const {
+    for (Series& s : series_) {
+      if (name == s.name()) return s;
+    }
+    throw std::logic_error("the unit asked for an undeclared series '" + std::string(name) + "'");
+  }
 
   double& operator[](std::size_t index) const { return values_[index]; }
   // Sets a result by its declared name; throws std::logic_error for an undeclared one.
@@ -186,6 +265,7 @@ class Results {
  private:
   std::span<const pfu_result> declared_;
   std::span<double> values_;
+  std::span<Series> series_;
 };
 
 // Warnings of one solve, one line each: what the host prints for an engineer to review.
@@ -228,6 +308,15 @@ template <class T>
 constexpr std::span<const pfu_result> declared_results() {
   if constexpr (requires { std::span<const pfu_result>(T::results); }) {
     return T::results;
+  } else {
+    return {};
+  }
+}
+
+template <class T>
+constexpr std::span<const pfu_series> declared_series() {
+  if constexpr (requires { std::span<const pfu_series>(T::series); }) {
+    return T::series;
   } else {
     return {};
   }
@@ -446,11 +535,30 @@ struct Instance {
   std::vector<InletState> inlets;
   std::vector<OutletState> outlets;
   Warnings warnings;
+  std::vector<std::uint32_t> series_lengths;  // points per declared series, fixed at create
+  std::vector<Series> series;                 // the writers of the solve under way
+  std::vector<double> series_scratch;         // where series go when the caller asks for none
 };
 
 template <class T>
 constexpr std::size_t port_count(std::uint32_t direction) {
   return static_cast<std::size_t>(std::ranges::count(T::ports, direction, &pfu_port::direction));
+}
+
+// Points an instance fills in series index: what the unit says (series_length), or max_points.
+template <class T>
+std::uint32_t series_length_of(const T& unit, std::size_t index) {
+  const pfu_series& declared = declared_series<T>()[index];
+  std::size_t length = declared.max_points;
+  if constexpr (requires { { unit.series_length(index) } -> std::convertible_to<std::size_t>; }) {
+    length = unit.series_length(index);
+  }
+  if (length > declared.max_points) {
+    throw UnitError(PFU_INTERNAL_ERROR, std::string("unit '") + T::type + "' asks for " + std::to_string(length) +
+                                            " points in series '" + declared.name + "', declared with at most " +
+                                            std::to_string(declared.max_points));
+  }
+  return static_cast<std::uint32_t>(length);
 }
 
 template <Unit T>
@@ -461,11 +569,152 @@ pfu_instance* create(const pfu_parameter_value* const* values, std::uint32_t val
   guarded(T::type, message, message_capacity, [&] {
     Slate copy = copy_slate(slate);
     const Parameters parameters = resolve_parameters(T::type, declared_parameters<T>(), values, value_count);
-    instance = new Instance<T>{copy, T(parameters, copy), {}, {}, {}};
+    auto made = std::make_unique<Instance<T>>(Instance<T>{copy, T(parameters, copy), {}, {}, {}, {}, {}, {}});
+    constexpr std::span<const pfu_series> declared = declared_series<T>();
+    std::size_t points = 0;
+    for (std::size_t i = 0; i < declared.size(); ++i) {
+      made->series_lengths.push_back(series_length_of(made->unit, i));
+      points += made->series_lengths.back();
+    }
+    made->series.resize(declared.size());
+    made->series_scratch.resize(2 * points);
+    instance = made.release();
   });
   return reinterpret_cast<pfu_instance*>(instance);
 }
 
+// How many streams a port of this class is given, checked against what it takes. counts is one
+// per port of the direction, or null for the solve of ABI 1.2, which passes one stream per port.
+template <class T>
+std::uint32_t streams_on_port(const pfu_port& port, const std::uint32_t* counts, std::size_t index) {
+  const std::uint32_t given = counts == nullptr ? 1 : counts[index];
+  const bool list = (port.flags & PFU_PORT_LIST) != 0;
+  const std::uint32_t low = list ? port.min_streams : 1;
+  const std::uint32_t high = list ? port.max_streams : 1;
+  if (given < low || given > high) {
+    std::string text = std::string("unit '") + T::type + "': port '" + port.name + "' takes ";
+    text += low == high ? std::to_string(low) : std::to_string(low) + " to " + (high == PFU_UNBOUNDED_STREAMS ? "any number of" : std::to_string(high));
+    text += " streams; solve was given " + std::to_string(given);
+    if (counts == nullptr) text += " (the solve of unit ABI 1.2 passes one per port; a list port needs a host of ABI 1.3 or later)";
+    throw UnitError(PFU_INVALID_ARGUMENT, text);
+  }
+  return given;
+}
+
+// Everything both solves share, once their arguments are read. Streams come port by port; counts
+// (per port of each direction) may be null: one per port. series may be null: the caller wants none.
+template <Unit T>
+void solve_streams(Instance<T>& instance, const pfu_stream_state* const* inlets, std::uint32_t inlet_count,
+                   const std::uint32_t* inlet_counts, pfu_stream_state* const* outlets, std::uint32_t outlet_count,
+                   const std::uint32_t* outlet_counts, double* results, std::uint32_t result_count,
+                   pfu_series_buffer* const* series, std::uint32_t series_count, char* warnings,
+                   std::size_t warnings_capacity) {
+  constexpr std::span<const pfu_result> declared = declared_results<T>();
+  constexpr std::span<const pfu_series> declared_curves = declared_series<T>();
+  if (result_count != declared.size() || (series_count != 0 && series_count != declared_curves.size())) {
+    throw UnitError(PFU_INVALID_ARGUMENT, std::string("unit '") + T::type + "' has " + std::to_string(declared.size()) +
+                                              " results and " + std::to_string(declared_curves.size()) +
+                                              " series; solve was given " + std::to_string(result_count) + " and " +
+                                              std::to_string(series_count));
+  }
+  if ((inlet_count > 0 && inlets == nullptr) || (outlet_count > 0 && outlets == nullptr) ||
+      (result_count > 0 && results == nullptr) || (series_count > 0 && series == nullptr)) {
+    throw UnitError(PFU_INVALID_ARGUMENT, "solve was given a null inlet, outlet, result or series array");
+  }
+  instance.inlets.clear();
+  instance.outlets.clear();
+  instance.warnings.clear();
+  std::size_t next = 0;
+  std::size_t port_number = 0;
+  for (std::size_t p = 0; p < std::size(T::ports); ++p) {
+    const pfu_port& port = T::ports[p];
+    if (port.direction != PFU_INLET) continue;
+    const std::uint32_t count = streams_on_port<T>(port, inlet_counts, port_number++);
+    for (std::uint32_t k = 0; k < count; ++k, ++next) {
+      if (next >= inlet_count) break;
+      if (inlets[next] == nullptr) throw UnitError(PFU_INVALID_ARGUMENT, std::string("inlet '") + port.name + "' is null");
+      instance.inlets.push_back(read_inlet(*inlets[next], port, instance.slate));
+      instance.inlets.back().port = p;
+    }
+  }
+  if (next != inlet_count || instance.inlets.size() != inlet_count) {
+    throw UnitError(PFU_INVALID_ARGUMENT, std::string("unit '") + T::type + "': the inlet ports' counts add up to " +
+                                              std::to_string(next) + " streams; solve was given " + std::to_string(inlet_count));
+  }
+  next = 0;
+  port_number = 0;
+  for (std::size_t p = 0; p < std::size(T::ports); ++p) {
+    const pfu_port& port = T::ports[p];
+    if (port.direction != PFU_OUTLET) continue;
+    const std::uint32_t count = streams_on_port<T>(port, outlet_counts, port_number++);
+    for (std::uint32_t k = 0; k < count; ++k, ++next) {
+      if (next >= outlet_count) break;
+      pfu_stream_state* state = outlets[next];
+      if (state == nullptr) throw UnitError(PFU_INVALID_ARGUMENT, std::string("outlet '") + port.name + "' is null");
+      check_shape(*state, instance.slate, [&] { return std::string("outlet '") + port.name + "'"; });
+      const std::span<double> flows(state->flows, instance.slate.phase_count() * instance.slate.components.size());
+      std::ranges::fill(flows, std::numeric_limits<double>::quiet_NaN());
+      instance.outlets.push_back({std::numeric_limits<double>::quiet_NaN(), std::numeric_limits<double>::quiet_NaN(),
+                                  instance.slate.components.size(), flows, p});
+    }
+  }
+  if (next != outlet_count || instance.outlets.size() != outlet_count) {
+    throw UnitError(PFU_INVALID_ARGUMENT, std::string("unit '") + T::type + "': the outlet ports' counts add up to " +
+                                              std::to_string(next) + " streams; solve was given " + std::to_string(outlet_count));
+  }
+  const std::span<double> values(results, result_count);
+  std::ranges::fill(values, std::numeric_limits<double>::quiet_NaN());
+  std::size_t scratch = 0;
+  for (std::size_t i = 0; i < declared_curves.size(); ++i) {
+    const std::size_t length = instance.series_lengths[i];
+    if (series_count == 0) {
+      const std::span<double> room(instance.series_scratch);
+      instance.series[i] = Series(declared_curves[i].name, room.subspan(scratch, length), room.subspan(scratch + length, length));
+      scratch += 2 * length;
+      continue;
+    }
+    pfu_series_buffer* buffer = series[i];
+    const auto where = [&] { return std::string("the buffer of series '") + declared_curves[i].name + "'"; };
+    if (buffer == nullptr) throw UnitError(PFU_INVALID_ARGUMENT, where() + " is null");
+    check_header(buffer->header, sizeof(pfu_series_buffer), where());
+    if (buffer->capacity < length || (length > 0 && (buffer->x == nullptr || buffer->y == nullptr))) {
+      throw UnitError(PFU_INVALID_ARGUMENT, where() + " holds " + std::to_string(buffer->capacity) +
+                                                " points; this instance fills " + std::to_string(length));
+    }
+    buffer->count = 0;
+    instance.series[i] = Series(declared_curves[i].name, std::span<double>(buffer->x, length), std::span<double>(buffer->y, length));
+  }
+  Results named(declared, values, std::span<Series>(instance.series));
+
+  instance.unit.solve(std::span<const InletState>(instance.inlets), std::span<OutletState>(instance.outlets), named,
+                      instance.warnings);
+
+  for (std::size_t k = 0; k < instance.outlets.size(); ++k) {
+    const OutletState& state = instance.outlets[k];
+    check_outlet(state, T::ports[state.port], instance.slate, T::type);
+    outlets[k]->temperature = state.temperature;
+    outlets[k]->pressure = state.pressure;
+  }
+  for (std::size_t i = 0; i < series_count; ++i) series[i]->count = static_cast<std::uint32_t>(instance.series[i].size());
+
+  std::size_t needed = 1;  // the terminating NUL
+  for (const std::string& line : instance.warnings.lines()) needed += line.size() + 1;
+  if (needed == 1) return;  // no warnings: the buffer, if any, already holds ""
+  if (warnings == nullptr || needed > warnings_capacity) {
+    throw UnitError(PFU_BUFFER_TOO_SMALL, std::string("unit '") + T::type + "': the warnings need " +
+                                              std::to_string(needed) + " bytes; the buffer holds " +
+                                              std::to_string(warnings == nullptr ? 0 : warnings_capacity));
+  }
+  std::size_t used = 0;
+  for (const std::string& line : instance.warnings.lines()) {
+    std::memcpy(warnings + used, line.data(), line.size());
+    used += line.size();
+    warnings[used++] = '\n';
+  }
+  warnings[used] = '\0';
+}
+
+// The solve of ABI 1.0 to 1.2: one stream per port, no series.
 template <Unit T>
 pfu_status solve(pfu_instance* handle, const pfu_stream_state* const* inlets, std::uint32_t inlet_count,
                  pfu_stream_state* const* outlets, std::uint32_t outlet_count, double* results,
@@ -485,64 +734,34 @@ pfu_status solve(pfu_instance* handle, const pfu_stream_state* const* inlets, st
                                                 std::to_string(inlet_count) + ", " + std::to_string(outlet_count) +
                                                 " and " + std::to_string(result_count));
     }
-    if ((inlet_count > 0 && inlets == nullptr) || (outlet_count > 0 && outlets == nullptr) ||
-        (result_count > 0 && results == nullptr)) {
-      throw UnitError(PFU_INVALID_ARGUMENT, "solve was given a null inlet, outlet or result array");
-    }
-    auto& instance = *reinterpret_cast<Instance<T>*>(handle);
-    instance.inlets.clear();
-    instance.outlets.clear();
-    instance.warnings.clear();
-    std::size_t next = 0;
-    for (const pfu_port& port : T::ports) {
-      if (port.direction != PFU_INLET) continue;
-      if (inlets[next] == nullptr) throw UnitError(PFU_INVALID_ARGUMENT, std::string("inlet '") + port.name + "' is null");
-      instance.inlets.push_back(read_inlet(*inlets[next++], port, instance.slate));
-    }
-    next = 0;
-    for (const pfu_port& port : T::ports) {
-      if (port.direction != PFU_OUTLET) continue;
-      pfu_stream_state* state = outlets[next++];
-      if (state == nullptr) throw UnitError(PFU_INVALID_ARGUMENT, std::string("outlet '") + port.name + "' is null");
-      check_shape(*state, instance.slate, [&] { return std::string("outlet '") + port.name + "'"; });
-      const std::span<double> flows(state->flows, instance.slate.phase_count() * instance.slate.components.size());
-      std::ranges::fill(flows, std::numeric_limits<double>::quiet_NaN());
-      instance.outlets.push_back({std::numeric_limits<double>::quiet_NaN(), std::numeric_limits<double>::quiet_NaN(),
-                                  instance.slate.components.size(), flows});
-    }
-    const std::span<double> values(results, result_count);
-    std::ranges::fill(values, std::numeric_limits<double>::quiet_NaN());
-    Results named(declared, values);
-
-    instance.unit.solve(std::span<const InletState>(instance.inlets), std::span<OutletState>(instance.outlets), named,
-                        instance.warnings);
-
-    next = 0;
-    for (const pfu_port& port : T::ports) {
-      if (port.direction != PFU_OUTLET) continue;
-      const OutletState& state = instance.outlets[next];
-      check_outlet(state, port, instance.slate, T::type);
-      outlets[next]->temperature = state.temperature;
-      outlets[next]->pressure = state.pressure;
-      ++next;
-    }
-
-    std::size_t needed = 1;  // the terminating NUL
-    for (const std::string& line : instance.warnings.lines()) needed += line.size() + 1;
-    if (needed == 1) return;  // no warnings: the buffer, if any, already holds ""
-    if (warnings == nullptr || needed > warnings_capacity) {
-      throw UnitError(PFU_BUFFER_TOO_SMALL, std::string("unit '") + T::type + "': the warnings need " +
-                                                std::to_string(needed) + " bytes; the buffer holds " +
-                                                std::to_string(warnings == nullptr ? 0 : warnings_capacity));
-    }
-    std::size_t used = 0;
-    for (const std::string& line : instance.warnings.lines()) {
-      std::memcpy(warnings + used, line.data(), line.size());
-      used += line.size();
-      warnings[used++] = '\n';
-    }
-    warnings[used] = '\0';
+    solve_streams(*reinterpret_cast<Instance<T>*>(handle), inlets, inlet_count, nullptr, outlets, outlet_count, nullptr,
+                  results, result_count, nullptr, 0, warnings, warnings_capacity);
   });
+}
+
+// The solve of ABI 1.3: list ports and series, arguments in one extensible struct.
+template <Unit T>
+pfu_status solve_call(pfu_instance* handle, const pfu_solve_call* call) noexcept {
+  if (call == nullptr || call->header.abi_major != PFU_ABI_MAJOR || call->header.struct_size < sizeof(pfu_solve_call)) {
+    return PFU_INVALID_ARGUMENT;  // nowhere to say why: the message buffer is in the call
+  }
+  write_text(call->message, call->message_capacity, {});
+  write_text(call->warnings, call->warnings_capacity, {});
+  return guarded(T::type, call->message, call->message_capacity, [&] {
+    if (handle == nullptr) throw UnitError(PFU_INVALID_ARGUMENT, "solve was given no instance");
+    if (call->inlet_counts == nullptr || call->outlet_counts == nullptr) {
+      throw UnitError(PFU_INVALID_ARGUMENT, "solve was given no stream counts per port");
+    }
+    solve_streams(*reinterpret_cast<Instance<T>*>(handle), call->inlets, call->inlet_count, call->inlet_counts,
+                  call->outlets, call->outlet_count, call->outlet_counts, call->results, call->result_count,
+                  call->series, call->series_count, call->warnings, call->warnings_capacity);
+  });
+}
+
+template <Unit T>
+std::uint32_t series_length(const pfu_instance* handle, std::uint32_t index) noexcept {
+  const auto* instance = reinterpret_cast<const Instance<T>*>(handle);
+  return instance == nullptr || index >= instance->series_lengths.size() ? 0 : instance->series_lengths[index];
 }
 
 template <Unit T>
@@ -568,6 +787,17 @@ template <class T>
 constexpr bool declarations_valid() {
   for (const pfu_port& p : T::ports) {
     if (p.meaning == nullptr || (p.direction != PFU_INLET && p.direction != PFU_OUTLET)) return false;
+    if ((p.flags & ~static_cast<std::uint32_t>(PFU_PORT_KNOWN_FLAGS)) != 0) return false;
+    if ((p.flags & PFU_PORT_LIST) != 0 && (p.max_streams < p.min_streams || p.max_streams < 1 ||
+                                           p.max_streams > PFU_UNBOUNDED_STREAMS || (p.flags & PFU_PORT_OPTIONAL) != 0)) {
+      return false;
+    }
+  }
+  for (const pfu_series& s : declared_series<T>()) {
+    if (s.meaning == nullptr || s.x_name == nullptr || s.x_unit == nullptr || s.y_name == nullptr ||
+        s.y_unit == nullptr || s.max_points < 1) {
+      return false;
+    }
   }
   for (const pfu_result& r : declared_results<T>()) {
     if (r.meaning == nullptr || r.unit == nullptr) return false;
@@ -585,13 +815,28 @@ constexpr bool declarations_valid() {
       if (!listed) return false;
     }
   }
-  return names_unique(T::ports) && names_unique(declared_parameters<T>()) && names_unique(declared_results<T>());
+  return names_unique(T::ports) && names_unique(declared_parameters<T>()) && names_unique(declared_results<T>()) &&
+         names_unique(declared_series<T>());
 }
+
+// The capabilities a class publishes: static, so the class table can point at them.
+template <Unit T>
+struct Capabilities {
+  static constexpr std::span<const pfu_series> series = declared_series<T>();
+  static constexpr pfu_series_capability series_capability{
+      {header_for<pfu_series_capability>(), PFU_CAPABILITY_SERIES, 0, "series"},
+      static_cast<std::uint32_t>(series.size()),
+      series.data(),
+      &series_length<T>};
+  static constexpr std::array<const pfu_capability*, 1> list{&series_capability.capability};
+  static constexpr std::uint32_t count = series.empty() ? 0 : 1;
+};
 
 template <Unit T>
 constexpr pfu_unit_class describe() {
   static_assert(declarations_valid<T>(),
-                "a port, parameter or result name is empty or repeated, or a default lies outside its bounds or choices");
+                "a port, parameter, result or series name is empty or repeated, a default lies outside its bounds or "
+                "choices, or a list port's bounds or a series' declaration are invalid");
   constexpr std::span<const pfu_parameter> parameters = declared_parameters<T>();
   constexpr std::span<const pfu_result> results = declared_results<T>();
   return {header_for<pfu_unit_class>(),
@@ -605,7 +850,10 @@ constexpr pfu_unit_class describe() {
           results.data(),
           &create<T>,
           &solve<T>,
-          &destroy<T>};
+          &destroy<T>,
+          &solve_call<T>,
+          Capabilities<T>::count,
+          Capabilities<T>::count == 0 ? nullptr : Capabilities<T>::list.data()};
 }
 
 }  // namespace detail

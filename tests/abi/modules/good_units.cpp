@@ -3,6 +3,9 @@
 //   passthrough  copies its inlet to its outlet
 //   mixer        sums two inlets; temperature by a constant-heat-capacity energy balance
 //   probe        copies its inlet, and fails or warns on request, to test every path of the boundary
+//   blender      any number of inlets (a list port) into equal shares on a list of outlets, with two
+//                series: the temperature after each inlet is blended in, and a profile whose length
+//                is fixed at create
 #include <protonflow/unit_module.hpp>
 
 #include <algorithm>
@@ -154,6 +157,66 @@ class Probe {
   std::size_t warning_count_;
 };
 
+class Blender {
+ public:
+  static constexpr const char* type = "blender";
+  static constexpr const char* summary = "Blends a list of streams into equal shares on a list of outlets (a test module)";
+  static constexpr std::array ports{unit::inlet_list("feed", all_phases, 1, 8, "streams in, one to eight"),
+                                    unit::outlet_list("share", all_phases, 1, PFU_UNBOUNDED_STREAMS, "equal shares out")};
+  static constexpr std::array parameters{
+      unit::number("profile_points", "1", 5.0, 2.0, 50.0, "points in the profile series, fixed at create")};
+  static constexpr std::array results{unit::result("total_flow", "mol/s", "molar flow in, all phases")};
+  static constexpr std::array series{
+      unit::series("blend_temperature", "flow_blended", "mol/s", "temperature", "K", 8,
+                   "temperature after each inlet is blended in, inlets in order"),
+      unit::series("profile", "fraction", "1", "temperature", "K", 50,
+                   "temperature from the first inlet's to the blend's, at evenly spaced fractions")};
+
+  Blender(const unit::Parameters& parameters, const unit::Slate&)
+      : profile_points_(static_cast<std::size_t>(parameters.number("profile_points"))) {}
+
+  std::size_t series_length(std::size_t index) const { return index == 0 ? series[0].max_points : profile_points_; }
+
+  void solve(std::span<const unit::InletState> inlets, std::span<unit::OutletState> outlets, unit::Results& results,
+             unit::Warnings&) const {
+    constexpr std::size_t feed = unit::port_index(ports, "feed");
+    constexpr std::size_t share = unit::port_index(ports, "share");
+    const auto feeds = unit::on_port(inlets, feed);
+    const auto shares = unit::on_port(outlets, share);
+    unit::Series& blend = results.series("blend_temperature");
+    // Equal, constant molar heat capacities, as the test mixer: the flow-weighted mean temperature.
+    double flow = 0.0;
+    double weighted = 0.0;
+    double pressure = feeds[0].pressure;
+    for (const unit::InletState& inlet : feeds) {
+      const double n = total_flow(inlet);
+      flow += n;
+      weighted += n * inlet.temperature;
+      pressure = std::min(pressure, inlet.pressure);
+      blend.add(flow, flow > 0.0 ? weighted / flow : inlet.temperature);
+    }
+    const double temperature = flow > 0.0 ? weighted / flow : feeds[0].temperature;
+    const double each = 1.0 / static_cast<double>(shares.size());
+    for (unit::OutletState& out : shares) {
+      out.temperature = temperature;
+      out.pressure = pressure;
+      std::ranges::fill(out.flows, 0.0);
+      for (const unit::InletState& inlet : feeds) {
+        for (std::size_t k = 0; k < out.flows.size(); ++k) out.flows[k] += inlet.flows[k] * each;
+      }
+    }
+    unit::Series& profile = results.series("profile");
+    for (std::size_t i = 0; i < profile.capacity(); ++i) {
+      const double fraction = static_cast<double>(i) / static_cast<double>(profile.capacity() - 1);
+      profile.add(fraction, feeds[0].temperature + fraction * (temperature - feeds[0].temperature));
+    }
+    results.set("total_flow", flow);
+  }
+
+ private:
+  std::size_t profile_points_;
+};
+
 }  // namespace
 
-PROTONFLOW_EXPORT_UNITS("protonflow-abi-test-units", "1.0.0", Passthrough, Mixer, Probe)
+PROTONFLOW_EXPORT_UNITS("protonflow-abi-test-units", "1.0.0", Passthrough, Mixer, Probe, Blender)

@@ -28,9 +28,18 @@ typedef struct future_module {
 #define FUTURE_HEADER(type) {PFU_ABI_MAJOR, PFU_ABI_MINOR + 1, sizeof(type)}
 
 static const future_port ports[] = {
-    {{FUTURE_HEADER(future_port), "feed", "stream in", PFU_INLET, PFU_PHASE_AQUEOUS, 0}, 1.0},
-    {{FUTURE_HEADER(future_port), "product", "the same stream out", PFU_OUTLET, PFU_PHASE_AQUEOUS, 0}, 2.0},
+    {{FUTURE_HEADER(future_port), "feed", "stream in", PFU_INLET, PFU_PHASE_AQUEOUS, 0, 0, 0}, 1.0},
+    {{FUTURE_HEADER(future_port), "product", "the same stream out", PFU_OUTLET, PFU_PHASE_AQUEOUS, 0, 0, 0}, 2.0},
 };
+
+/* A capability of the later minor that this host does not know; not required, so it is ignored. */
+typedef struct future_capability {
+  pfu_capability capability;
+  double setting;
+} future_capability;
+static const future_capability later_feature = {
+    {FUTURE_HEADER(future_capability), 1000, 0, "a later feature, optional"}, 3.0};
+static const pfu_capability* const capabilities[] = {&later_feature.capability};
 
 static const char* const note_choices[] = {"none", "some"};
 
@@ -51,7 +60,8 @@ static const future_unit_class classes[] = {
     {{FUTURE_HEADER(future_unit_class), "future_copy",
       "Copies its inlet less a pressure drop (a test module built for a later minor)", 2, 2, 1,
       (const pfu_port*)(const void*)ports, (const pfu_parameter*)(const void*)parameters,
-      (const pfu_result*)(const void*)results, copy_unit_create, copy_unit_solve, copy_unit_destroy},
+      (const pfu_result*)(const void*)results, copy_unit_create, copy_unit_solve, copy_unit_destroy, NULL, 1,
+      capabilities},
      "unknown to this host"},
 };
 

@@ -1,5 +1,5 @@
 /* Test module built as against ABI 1.0: every header says minor 0, and its parameter descriptors
- * have the 1.0 layout, which ended before choice_count. A 1.1 host must load it and read the
+ * have the 1.0 layout, which ended before choice_count. A later host must load it and read the
  * fields 1.0 had. */
 #include "copy_unit.h"
 
@@ -27,6 +27,22 @@ typedef struct parameter_1_0 {
   const char* default_text;
 } parameter_1_0;
 
+/* pfu_unit_class as ABI 1.0 to 1.2 laid it out, before solve_call. */
+typedef struct unit_class_1_0 {
+  pfu_header header;
+  const char* type;
+  const char* summary;
+  uint32_t port_count;
+  uint32_t parameter_count;
+  uint32_t result_count;
+  const pfu_port* ports;
+  const pfu_parameter* parameters;
+  const pfu_result* results;
+  pfu_create_fn create;
+  pfu_solve_fn solve;
+  pfu_destroy_fn destroy;
+} unit_class_1_0;
+
 #define HEADER_1_0(type) {PFU_ABI_MAJOR, 0, sizeof(type)}
 
 static const port_1_0 ports[] = {
@@ -43,8 +59,8 @@ static const pfu_result results[] = {
     {HEADER_1_0(pfu_result), "pressure_drop", "Pa", "pressure drop applied"},
 };
 
-static const pfu_unit_class classes[] = {{
-    HEADER_1_0(pfu_unit_class),
+static const unit_class_1_0 classes[] = {{
+    HEADER_1_0(unit_class_1_0),
     "old_copy",
     "Copies its inlet less a pressure drop (a test module built for ABI 1.0)",
     2,
@@ -58,6 +74,7 @@ static const pfu_unit_class classes[] = {{
     copy_unit_destroy,
 }};
 
-static const pfu_module table = {HEADER_1_0(pfu_module), "protonflow-abi-test-old-minor", "0.9.0", 1, classes};
+static const pfu_module table = {HEADER_1_0(pfu_module), "protonflow-abi-test-old-minor", "0.9.0", 1,
+                                 (const pfu_unit_class*)(const void*)classes};
 
 const pfu_module* protonflow_unit_module(void) { return &table; }

@@ -5,8 +5,8 @@
 #include <stddef.h>
 
 static const pfu_port ports[] = {
-    {{PFU_ABI_MAJOR, PFU_ABI_MINOR, sizeof(pfu_port)}, "feed", "stream in", PFU_INLET, PFU_PHASE_AQUEOUS, 0},
-    {{PFU_ABI_MAJOR, PFU_ABI_MINOR, sizeof(pfu_port)}, "product", "stream out", PFU_OUTLET, PFU_PHASE_AQUEOUS, 0},
+    {{PFU_ABI_MAJOR, PFU_ABI_MINOR, sizeof(pfu_port)}, "feed", "stream in", PFU_INLET, PFU_PHASE_AQUEOUS, 0, 0, 0},
+    {{PFU_ABI_MAJOR, PFU_ABI_MINOR, sizeof(pfu_port)}, "product", "stream out", PFU_OUTLET, PFU_PHASE_AQUEOUS, 0, 0, 0},
 };
 
 static const pfu_unit_class classes[] = {{{PFU_ABI_MAJOR, PFU_ABI_MINOR, offsetof(pfu_unit_class, create)},
@@ -20,7 +20,10 @@ static const pfu_unit_class classes[] = {{{PFU_ABI_MAJOR, PFU_ABI_MINOR, offseto
                                           NULL,
                                           copy_unit_create,
                                           copy_unit_solve,
-                                          copy_unit_destroy}};
+                                          copy_unit_destroy,
+                                          NULL,
+                                          0,
+                                          NULL}};
 
 static const pfu_module table = {{PFU_ABI_MAJOR, PFU_ABI_MINOR, sizeof(pfu_module)}, "protonflow-abi-test-truncated",
                                  "1.0.0", 1, classes};

@@ -3,8 +3,8 @@
 #include "copy_unit.h"
 
 static const pfu_port ports[] = {
-    {{PFU_ABI_MAJOR + 1, 0, sizeof(pfu_port)}, "feed", "stream in", PFU_INLET, PFU_PHASE_AQUEOUS, 0},
-    {{PFU_ABI_MAJOR + 1, 0, sizeof(pfu_port)}, "product", "stream out", PFU_OUTLET, PFU_PHASE_AQUEOUS, 0},
+    {{PFU_ABI_MAJOR + 1, 0, sizeof(pfu_port)}, "feed", "stream in", PFU_INLET, PFU_PHASE_AQUEOUS, 0, 0, 0},
+    {{PFU_ABI_MAJOR + 1, 0, sizeof(pfu_port)}, "product", "stream out", PFU_OUTLET, PFU_PHASE_AQUEOUS, 0, 0, 0},
 };
 
 static const pfu_result results[] = {{{PFU_ABI_MAJOR + 1, 0, sizeof(pfu_result)}, "pressure_drop", "Pa", "drop"}};
@@ -20,7 +20,10 @@ static const pfu_unit_class classes[] = {{{PFU_ABI_MAJOR + 1, 0, sizeof(pfu_unit
                                           results,
                                           copy_unit_create,
                                           copy_unit_solve,
-                                          copy_unit_destroy}};
+                                          copy_unit_destroy,
+                                          NULL,
+                                          0,
+                                          NULL}};
 
 static const pfu_module table = {{PFU_ABI_MAJOR + 1, 0, sizeof(pfu_module)}, "protonflow-abi-test-wrong-major", "1.0.0",
                                  1, classes};

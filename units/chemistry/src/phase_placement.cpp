@@ -1,4 +1,4 @@
-#include "phase_placement.hpp"
+#include <protonflow/units/phase_placement.hpp>
 
 #include <Eigen/Dense>
 
@@ -6,7 +6,7 @@
 #include <cmath>
 #include <utility>
 
-#include "message_text.hpp"
+#include <protonflow/units/message_text.hpp>
 
 namespace protonflow::units {
 

@@ -1,4 +1,4 @@
-// The chemical system in which a unit of this module equilibrates every stream of an instance:
+// The chemical system in which a chemistry unit equilibrates every stream of an instance:
 // one per instance, built from the slate at create (docs/units.md, "The chemical system").
 #pragma once
 
@@ -13,7 +13,7 @@
 
 namespace protonflow::units {
 
-// The activity-model parameter every unit of this module declares, and the choices behind it.
+// The activity-model parameter every chemistry unit declares, and the choices behind it.
 inline constexpr std::array<const char*, 3> activity_model_choices{"davies", "b-dot", "pitzer"};
 inline constexpr pfu_parameter activity_model_parameter =
     unit::choice("activity_model", activity_model_choices, "davies", "activity coefficients: Davies, extended Debye-Hueckel (B-dot) or Pitzer (brines and acids to about 6 mol/kg)");

@@ -1,10 +1,10 @@
-#include "product_warnings.hpp"
+#include <protonflow/units/product_warnings.hpp>
 
 #include <cstddef>
 
 #include <protonflow/thermo/pitzer_coverage.hpp>
 
-#include "message_text.hpp"
+#include <protonflow/units/message_text.hpp>
 
 namespace protonflow::units {
 

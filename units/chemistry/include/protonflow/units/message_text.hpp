@@ -1,4 +1,4 @@
-// Numbers as the heater module's messages and warnings write them.
+// Numbers as the chemistry units' messages and warnings write them.
 #pragma once
 
 #include <array>

@@ -1,4 +1,4 @@
-// The warnings a unit of this module gives about its product at equilibrium: hot corrosive liquor,
+// The warnings a chemistry unit gives about its product at equilibrium: hot corrosive liquor,
 // a gas phase (boiling, degassing), precipitated solids, and the engine's own (a model stretched).
 // Thresholds and their sources: docs/units.md, "Warnings".
 #pragma once

@@ -1,4 +1,4 @@
-#include "stream_chemistry.hpp"
+#include <protonflow/units/stream_chemistry.hpp>
 
 #include <protonflow/thermo/database.hpp>
 #include <protonflow/thermo/errors.hpp>

@@ -1,4 +1,4 @@
-#include "equilibrium_stream.hpp"
+#include <protonflow/units/equilibrium_stream.hpp>
 
 #include <protonflow/thermo/errors.hpp>
 #include <protonflow/thermo/stream_enthalpy.hpp>
@@ -6,8 +6,8 @@
 #include <algorithm>
 #include <cmath>
 
-#include "message_text.hpp"
-#include "thermo_failure.hpp"
+#include <protonflow/units/message_text.hpp>
+#include <protonflow/units/thermo_failure.hpp>
 
 namespace protonflow::units {
 

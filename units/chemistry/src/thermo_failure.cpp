@@ -1,4 +1,4 @@
-#include "thermo_failure.hpp"
+#include <protonflow/units/thermo_failure.hpp>
 
 #include <protonflow/unit_module.hpp>
 
@@ -6,7 +6,7 @@
 #include <cmath>
 #include <vector>
 
-#include "message_text.hpp"
+#include <protonflow/units/message_text.hpp>
 
 namespace protonflow::units {
 
