@@ -1,0 +1,144 @@
+#include "titration.hpp"
+
+#include <protonflow/unit_module.hpp>
+#include <protonflow/units/message_text.hpp>
+
+#include <boost/math/tools/roots.hpp>
+
+#include <algorithm>
+#include <cmath>
+#include <cstdint>
+#include <limits>
+
+namespace protonflow::units {
+
+namespace {
+
+// Stopping rules of the dose search: a pH within 1e-9 of the target is the target (far below any
+// meter's resolution, 0.01 pH), and a bracket of relative width 1e-13 cannot be narrowed further
+// in a useful way (a few ulps of the ratio).
+constexpr double ph_match = 1e-9;
+constexpr double relative_bracket = 1e-13;
+constexpr std::uintmax_t max_search_steps = 100;
+// The bracket tried around a hint, relative: a few kelvin of adiabatic heating move the dose of a
+// steep curve by far less.
+constexpr double hint_width = 1e-4;
+
+}  // namespace
+
+double mass_flow(const thermo::ChemicalSystem& system, std::span<const double> totals) {
+  double mass = 0.0;
+  for (std::size_t c = 0; c < totals.size(); ++c) mass += totals[c] * system.component_molar_mass(c);
+  return mass;
+}
+
+Titration::Titration(const thermo::ChemicalSystem& system)
+    : system_(&system),
+      solver_(system),
+      reagent_solver_(system),
+      feed_(system.components().size(), 0.0),
+      reagent_(system.components().size(), 0.0),
+      totals_(system.components().size(), 0.0) {}
+
+void Titration::set_streams(std::span<const double> feed, std::span<const double> reagent) {
+  std::ranges::copy(feed, feed_.begin());
+  std::ranges::copy(reagent, reagent_.begin());
+  feed_mass_ = mass_flow(*system_, feed_);
+  reagent_mass_ = mass_flow(*system_, reagent_);
+}
+
+std::span<const double> Titration::totals_at(double ratio) {
+  const double scale = reagent_mass_ > 0.0 ? ratio * feed_mass_ / reagent_mass_ : 0.0;
+  for (std::size_t c = 0; c < totals_.size(); ++c) totals_[c] = feed_[c] + scale * reagent_[c];
+  return totals_;
+}
+
+const thermo::Speciation& Titration::equilibrate(double ratio, double temperature, double pressure) {
+  const std::span<const double> totals = totals_at(ratio);
+  ++solves_;
+  solver_.solve(temperature, pressure, totals, {}, state_);
+  return state_;
+}
+
+double Titration::reagent_ph(double temperature, double pressure) {
+  ++solves_;
+  reagent_solver_.solve(temperature, pressure, reagent_, {}, reagent_state_);
+  return reagent_state_.ph;
+}
+
+double Titration::find_ratio(double target, double temperature, double pressure, double ratio_max,
+                             const std::string& unit_type, double hint) {
+  if (hint > 0.0) {
+    const double low = hint * (1.0 - hint_width);
+    const double high = std::min(hint * (1.0 + hint_width), ratio_max);
+    const double low_miss = ph_at(low, temperature, pressure) - target;
+    const double high_miss = ph_at(high, temperature, pressure) - target;
+    if ((low_miss < 0.0) != (high_miss < 0.0)) return search(target, temperature, pressure, low, high, low_miss, high_miss, unit_type);
+  }
+  const std::string prefix = "unit '" + unit_type + "': target_ph " + number_text(target, 4) + ": ";
+  const double start = ph_at(0.0, temperature, pressure);
+  if (std::abs(start - target) <= ph_match) return 0.0;
+  const double end = ph_at(ratio_max, temperature, pressure);
+  const bool raises = end > start;  // the reagent is a base for this feed
+  const bool needs_raise = target > start;
+  if (raises != needs_raise) {
+    throw unit::UnitError(PFU_INVALID_PARAMETER,
+                          prefix + "the feed alone is at pH " + number_text(start, 4) + " and this reagent " +
+                              (raises ? "raises" : "lowers") + " the pH (to " + number_text(end, 4) + " at max_reagent_ratio " +
+                              number_text(ratio_max, 4) + " kg/kg); the target needs " + (needs_raise ? "a base" : "an acid"));
+  }
+  if ((raises && end < target) || (!raises && end > target)) {
+    const double limit = reagent_ph(temperature, pressure);
+    const bool beyond_reagent = raises ? target >= limit : target <= limit;
+    if (beyond_reagent) {
+      throw unit::UnitError(PFU_INVALID_PARAMETER,
+                            prefix + "unreachable: the " + (raises ? "highest" : "lowest") + " pH this reagent can give is " +
+                                number_text(limit, 4) + " at " + celsius_text(temperature) +
+                                " (the reagent's own pH, approached as the dose grows without bound); at max_reagent_ratio " +
+                                number_text(ratio_max, 4) + " kg/kg the pH is " + number_text(end, 4) +
+                                "; a stronger reagent is needed");
+    }
+    throw unit::UnitError(PFU_INVALID_PARAMETER,
+                          prefix + "not reached within max_reagent_ratio " + number_text(ratio_max, 4) +
+                              " kg/kg, where the pH is " + number_text(end, 4) + "; the reagent alone is at pH " +
+                              number_text(limit, 4) + ", so a larger max_reagent_ratio will reach it");
+  }
+  if (std::abs(end - target) <= ph_match) return ratio_max;
+
+  return search(target, temperature, pressure, 0.0, ratio_max, start - target, end - target, unit_type);
+}
+
+// TOMS 748 on g(x) = pH(x) − target over [low, high], where g changes sign.
+double Titration::search(double target, double temperature, double pressure, double low, double high, double low_miss,
+                         double high_miss, const std::string& unit_type) {
+  const std::string prefix = "unit '" + unit_type + "': target_ph " + number_text(target, 4) + ": ";
+  double best_ratio = low;
+  double best_miss = low_miss;
+  if (std::abs(high_miss) < std::abs(low_miss)) {
+    best_ratio = high;
+    best_miss = high_miss;
+  }
+  const auto miss = [&](double ratio) {
+    const double g = ph_at(ratio, temperature, pressure) - target;
+    if (std::abs(g) < std::abs(best_miss)) {
+      best_ratio = ratio;
+      best_miss = g;
+    }
+    return std::abs(g) <= ph_match ? 0.0 : g;
+  };
+  const auto narrow_enough = [](double a, double b) { return b - a <= relative_bracket * std::max(std::abs(a), std::abs(b)); };
+  std::uintmax_t steps = max_search_steps;
+  boost::math::tools::toms748_solve(miss, low, high, low_miss, high_miss, narrow_enough, steps);
+  // A step function (a pure strong acid meeting a pure strong base at a pKw/2 target is not one, but
+  // a curve can be steeper than the ratio's resolution) may leave the pH off the target: say so.
+  if (!(std::abs(best_miss) <= 1e-6)) {
+    throw unit::UnitError(PFU_NOT_CONVERGED,
+                          prefix + "the dose search ended at ratio " + number_text(best_ratio, 10) + " kg/kg with pH " +
+                              number_text(best_miss + target, 8) + " after " + std::to_string(steps) +
+                              " steps: the titration curve jumps across the target faster than the ratio can resolve");
+  }
+  if (state_.ph - target != best_miss) equilibrate(best_ratio, temperature, pressure);
+  return best_ratio;
+}
+
+}  // namespace protonflow::units

@@ -1,0 +1,76 @@
+// The titration of a feed by a reagent: the equilibrium of feed + dose at a temperature, as a
+// function of the reagent-to-feed mass ratio, and the dose that brings it to a target pH
+// (docs/units.md, "neutraliser", "Equations").
+//
+//   n(x) = n_feed + s(x) n_reagent,   s(x) = x m_feed / m_reagent
+//   pH(x) = pH of the equilibrium of n(x) at T, P
+//
+// with n the component totals (mol/s, all phases), m the mass flows (kg/s) and x in kg of reagent
+// per kg of feed. Every equilibrium warm-starts from the previous one (one solver, reused).
+#pragma once
+
+#include <protonflow/thermo/chemical_system.hpp>
+#include <protonflow/thermo/equilibrium_solver.hpp>
+
+#include <cstddef>
+#include <span>
+#include <string>
+#include <vector>
+
+namespace protonflow::units {
+
+// Mass flow (kg/s) of component totals (mol/s) on a system's components.
+double mass_flow(const thermo::ChemicalSystem& system, std::span<const double> totals);
+
+class Titration {
+ public:
+  // The system must outlive the titration and stay where it is.
+  explicit Titration(const thermo::ChemicalSystem& system);
+
+  // The feed's and the reagent's totals (mol/s per component, all phases) as they enter.
+  void set_streams(std::span<const double> feed, std::span<const double> reagent);
+  double feed_mass() const noexcept { return feed_mass_; }        // kg/s
+  double reagent_mass() const noexcept { return reagent_mass_; }  // kg/s, as it enters
+  // The ratio (kg/kg) of the reagent as it enters.
+  double inlet_ratio() const noexcept { return reagent_mass_ / feed_mass_; }
+
+  // Totals at a ratio x (kg reagent per kg feed); valid until the next call.
+  std::span<const double> totals_at(double ratio);
+  // The equilibrium at ratio x, T (K) and P (Pa); throws thermo errors. Counts solves.
+  const thermo::Speciation& equilibrate(double ratio, double temperature, double pressure);
+  double ph_at(double ratio, double temperature, double pressure) { return equilibrate(ratio, temperature, pressure).ph; }
+  // pH of the reagent alone at T and P: the limit of pH(x) as x grows without bound.
+  double reagent_ph(double temperature, double pressure);
+
+  // The ratio in [0, ratio_max] where pH(x) = target at T, P: TOMS 748 [alefeld-potra-shi-1995]
+  // on g(x) = pH(x) − target, to |g| <= 1e-9 or a bracket of relative width 1e-13. Throws
+  // protonflow::unit::UnitError (PFU_INVALID_PARAMETER) when the target lies outside
+  // [pH(0), pH(ratio_max)], saying why: the feed is already past it, the reagent cannot reach it
+  // (naming the reagent's own pH, the highest or lowest it can give), or ratio_max is too small.
+  // A hint (a ratio found at a nearby temperature) is tried first: where pH(hint ± 0.01 %) brackets
+  // the target, the search runs there and skips the ends of [0, ratio_max].
+  double find_ratio(double target, double temperature, double pressure, double ratio_max, const std::string& unit_type,
+                    double hint = 0.0);
+
+  long solves() const noexcept { return solves_; }
+  void reset_count() noexcept { solves_ = 0; }
+  const thermo::Speciation& state() const noexcept { return state_; }
+
+ private:
+  double search(double target, double temperature, double pressure, double low, double high, double low_miss,
+                double high_miss, const std::string& unit_type);
+
+  const thermo::ChemicalSystem* system_;
+  thermo::EquilibriumSolver solver_;
+  thermo::EquilibriumSolver reagent_solver_;
+  std::vector<double> feed_;
+  std::vector<double> reagent_;
+  std::vector<double> totals_;
+  double feed_mass_ = 0.0;
+  double reagent_mass_ = 0.0;
+  thermo::Speciation state_;
+  thermo::Speciation reagent_state_;
+  long solves_ = 0;
+};
+
+}  // namespace protonflow::units
