@@ -425,3 +425,13 @@ TEST_CASE("every demo flowsheet in host-demo/examples/flowsheets runs") {
   }
   CHECK(count >= 2);
 }
+
+TEST_CASE("the pickling-vent scrubber demo runs through protonflow run and reports its column") {
+  const ProgramRun demo = run(fs::path(PROTONFLOW_EXAMPLES) / "flowsheets" / "pickling-vent-scrubber.yaml");
+  INFO("stderr: " << demo.err);
+  REQUIRE(demo.exit_code == 0);
+  CHECK_THAT(demo.out, Contains("stack_gas") && Contains("spent_caustic"));
+  CHECK_THAT(demo.out, Contains("removal_hcl") && Contains("stages_for_limit") && Contains("reagent_to_co2"));
+  // The standing deferral to local permits and codes is printed as a warning.
+  CHECK_THAT(demo.out, Contains("local permit"));
+}

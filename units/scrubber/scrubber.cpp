@@ -1,0 +1,345 @@
+#include "scrubber.hpp"
+
+#include <protonflow/thermo/constants.hpp>
+#include <protonflow/thermo/database.hpp>
+#include <protonflow/thermo/errors.hpp>
+#include <protonflow/units/message_text.hpp>
+#include <protonflow/units/product_warnings.hpp>
+#include <protonflow/units/thermo_failure.hpp>
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <string>
+
+namespace protonflow::scrubber {
+
+namespace {
+
+using units::number_text;
+
+constexpr double not_a_number = std::numeric_limits<double>::quiet_NaN();
+constexpr std::size_t none = StageModel::no_component;
+
+// Normal conditions for emission concentrations: 273.15 K and 101.325 kPa, dry gas (common
+// practice; Directive 2010/75/EU, Annex VI, Part 2, from memory).
+constexpr double normal_temperature = 273.15;
+constexpr double normal_pressure = 101325.0;
+// The most stages the search for an emission limit tries.
+constexpr std::size_t most_stages_for_limit = 100;
+// A liquor above this pH takes up CO2 as carbonate and wastes reagent on it (common practice: acid-
+// gas scrubbers on caustic are run at pH 7 to 9 where CO2 is in the gas).
+constexpr double carbon_dioxide_ph = 10.0;
+// A solid whose saturation index is above this is near saturation: scale may form (common
+// practice: |SI| < 0.5 counts as near equilibrium).
+constexpr double scaling_index = -0.5;
+
+// The species data, read once per module and shared by every instance (read-only after loading).
+const thermo::Database& module_database() {
+  static const thermo::Database database = thermo::load_database(thermo::default_data_directory());
+  return database;
+}
+
+thermo::ActivityModelKind activity_kind(const std::string& name) {
+  return name == "b-dot" ? thermo::ActivityModelKind::b_dot : thermo::ActivityModelKind::davies;
+}
+
+std::size_t trade_index(const std::string& formula) {
+  for (std::size_t i = 0; i < Scrubber::trade_formulas.size(); ++i)
+    if (formula == Scrubber::trade_formulas[i]) return i;
+  return none;
+}
+
+ColumnChemistry build_chemistry(const unit::Slate& slate, const std::string& activity_model) {
+  const thermo::Database* database = nullptr;
+  try {
+    database = &module_database();
+  } catch (const thermo::ThermoError& error) {
+    throw unit::UnitError(PFU_INTERNAL_ERROR, std::string("unit 'scrubber': cannot read the species data: ") + error.what());
+  }
+  return make_column_chemistry(Scrubber::type, *database, slate, activity_kind(activity_model));
+}
+
+// Protons each absorbed gas hands to the liquor (mol/s), per column gas: what it brings as gas,
+// h_k · n_k, less what the species of its basis carry more in the spent liquor than in the feed
+// (docs/units.md, "scrubber", "Reagent").
+double bound_protons(const thermo::ChemicalSystem& system, const thermo::Speciation& state, std::size_t basis) {
+  double bound = 0.0;
+  for (std::size_t s = 0; s < system.solutes().size(); ++s) {
+    const auto& nu = system.solutes()[s].stoichiometry;
+    if (nu[basis] != 0.0) bound += state.molality[s] * state.water_mass * nu[basis] * nu[0];
+  }
+  return bound;
+}
+
+}  // namespace
+
+Scrubber::Scrubber(const unit::Parameters& parameters, const unit::Slate& slate)
+    : stages_(0),
+      limit_gas_(none),
+      emission_limit_(parameters.number("emission_limit")),
+      reference_oxygen_(parameters.given("reference_oxygen") ? parameters.number("reference_oxygen") : not_a_number),
+      oxygen_gas_(none),
+      chemistry_(build_chemistry(slate, parameters.text("activity_model"))),
+      model_(std::make_unique<ChemistryStageModel>(*chemistry_.liquid_system, *chemistry_.flash_system, chemistry_.gases)) {
+  const double stages = parameters.number("stages");
+  if (stages != std::floor(stages))
+    throw unit::UnitError(PFU_INVALID_PARAMETER, "unit 'scrubber': stages " + number_text(stages) + " is not a whole number");
+  stages_ = static_cast<std::size_t>(stages);
+  const double common = parameters.number("efficiency");
+  for (const ColumnGas& gas : chemistry_.gases) {
+    const std::size_t trade = trade_index(gas.component);
+    const std::string name = gas.component == "H2O" ? "efficiency_h2o"
+                             : trade != none       ? std::string("efficiency_") + trade_gases[trade]
+                                                   : "";
+    efficiency_.push_back(!name.empty() && parameters.given(name) ? parameters.number(name) : common);
+  }
+  for (std::size_t k = 0; k < chemistry_.gases.size(); ++k)
+    if (chemistry_.gases[k].component == "O2") oxygen_gas_ = k;
+  if (!std::isnan(reference_oxygen_) && oxygen_gas_ == none)
+    throw unit::UnitError(PFU_INVALID_PARAMETER,
+                          "unit 'scrubber': reference_oxygen needs O2 on the slate, to know the gas's own oxygen content");
+  const std::string& limit = parameters.text("limit_gas");
+  if (limit != "none") {
+    if (!parameters.given("emission_limit"))
+      throw unit::UnitError(PFU_INVALID_PARAMETER, "unit 'scrubber': limit_gas " + limit + " needs emission_limit");
+    for (std::size_t k = 0; k < chemistry_.gases.size(); ++k) {
+      const std::size_t trade = trade_index(chemistry_.gases[k].component);
+      if (trade != none && limit == trade_gases[trade]) limit_gas_ = k;
+    }
+    if (limit_gas_ == none)
+      throw unit::UnitError(PFU_INVALID_PARAMETER,
+                            "unit 'scrubber': limit_gas " + limit + " is not a gas of the slate; add it or set limit_gas: none");
+  } else if (parameters.given("emission_limit")) {
+    throw unit::UnitError(PFU_INVALID_PARAMETER, "unit 'scrubber': emission_limit is given but limit_gas is none");
+  }
+}
+
+ColumnProfile Scrubber::solve_stages(std::size_t stages, const ColumnSpecification& base, const ColumnFeeds& feeds) {
+  ColumnSpecification specification = base;
+  specification.stages = stages;
+  model_->prepare(stages);
+  try {
+    return solve_column(*model_, specification, feeds);
+  } catch (const ColumnConvergenceError& error) {
+    std::string message = std::string("unit 'scrubber': ") + error.what();
+    for (const StageResidual& r : error.residuals())
+      message += "; stage " + std::to_string(r.stage) + " " + r.equation + ": " + number_text(r.scaled_residual, 3);
+    throw unit::UnitError(PFU_NOT_CONVERGED, message);
+  } catch (const thermo::ThermoError& error) {
+    units::throw_unit_error(error, type, "the liquor feed", PFU_BAD_INLET);
+  }
+}
+
+double Scrubber::dry_concentration(const ColumnProfile& profile, std::size_t gas) const {
+  const std::size_t gas_count = chemistry_.gases.size();
+  double dry = 0.0;
+  for (std::size_t k = 0; k < gas_count; ++k)
+    if (chemistry_.gases[k].component != "H2O") dry += profile.gas[k];
+  const double molar_mass = chemistry_.liquid_system->component_molar_mass(chemistry_.gases[gas].liquid_component);
+  const double normal_molar_volume = thermo::constants::gas_constant * normal_temperature / normal_pressure;  // m³/mol
+  const double concentration = profile.gas[gas] / dry * molar_mass / normal_molar_volume;
+  if (std::isnan(reference_oxygen_)) return concentration;
+  // To the reference oxygen content: C_ref = C (21 − O_ref) / (21 − O_measured), volume percent of
+  // dry gas (eu-ied-2010, Annex VI, from memory).
+  const double oxygen = profile.gas[oxygen_gas_] / dry;
+  return concentration * (0.21 - reference_oxygen_) / (0.21 - oxygen);
+}
+
+void Scrubber::solve(std::span<const unit::InletState> inlets, std::span<unit::OutletState> outlets, unit::Results& results,
+                     unit::Warnings& warnings) {
+  const unit::InletState& gas_in = inlets[0];
+  const unit::InletState& liquor_in = inlets[1];
+  const std::size_t slate_count = gas_in.component_count;
+  const std::size_t gas_count = chemistry_.gases.size();
+  const std::size_t liquid_count = chemistry_.slate_component.size();
+
+  // Feeds: the gas inlet's gas row onto the column's gases, the liquor's aqueous row onto its
+  // liquid components. Anything in another phase row is refused, not silently dropped.
+  const std::size_t rows = gas_in.flows.size() / slate_count;
+  for (std::size_t row = 0; row < rows; ++row) {
+    for (std::size_t c = 0; c < slate_count; ++c) {
+      if (row != PFU_GAS_ROW && gas_in.flow(row, c) != 0.0)
+        throw unit::UnitError(PFU_BAD_INLET, "unit 'scrubber': inlet 'gas_in' carries liquid or solid " +
+                                                 std::string(c < slate_count ? "flow" : "") + "; the column takes a gas only");
+      if (row != PFU_AQUEOUS_ROW && liquor_in.flow(row, c) != 0.0)
+        throw unit::UnitError(PFU_BAD_INLET, "unit 'scrubber': inlet 'liquor_in' carries gas or solids; the column takes a liquor only");
+    }
+  }
+  ColumnFeeds feeds;
+  feeds.gas.assign(gas_count, 0.0);
+  for (std::size_t c = 0; c < slate_count; ++c) {
+    const double flow = gas_in.flow(PFU_GAS_ROW, c);
+    if (flow == 0.0) continue;
+    const std::size_t k = chemistry_.gas_of_slate_component[c];
+    if (k == none)
+      throw unit::UnitError(PFU_BAD_INLET, "unit 'scrubber': inlet 'gas_in' carries component " + std::to_string(c) +
+                                               ", which is not a gas of the species data");
+    feeds.gas[k] = flow;
+  }
+  feeds.gas_temperature = gas_in.temperature;
+  feeds.liquid = chemistry_.liquid_of(liquor_in.phase(PFU_AQUEOUS_ROW));
+  for (double& amount : feeds.liquid) {
+    if (amount < 0.0 && amount > -1e-12 * std::abs(feeds.liquid.front())) amount = 0.0;  // round-off of the re-expression
+    if (amount < 0.0) throw unit::UnitError(PFU_BAD_INLET, "unit 'scrubber': the liquor cannot be written as the column's components");
+  }
+  feeds.liquid_temperature = liquor_in.temperature;
+  double gas_total = 0.0, liquid_total = 0.0;
+  for (const double f : feeds.gas) gas_total += f;
+  for (const double f : feeds.liquid) liquid_total += f;
+  if (!(gas_total > 0.0)) throw unit::UnitError(PFU_BAD_INLET, "unit 'scrubber': inlet 'gas_in' has no gas flow");
+  if (!(liquid_total > 0.0)) throw unit::UnitError(PFU_BAD_INLET, "unit 'scrubber': inlet 'liquor_in' has no flow");
+
+  ColumnSpecification specification;
+  specification.pressure = gas_in.pressure;
+  specification.efficiency = efficiency_;
+  const ColumnProfile profile = solve_stages(stages_, specification, feeds);
+  const std::size_t n = profile.stages;
+
+  // Outlets: the top stage's gas, the bottom stage's liquid, each at its stage's temperature.
+  unit::OutletState& gas_out = outlets[0];
+  unit::OutletState& liquor_out = outlets[1];
+  std::ranges::fill(gas_out.flows, 0.0);
+  std::ranges::fill(liquor_out.flows, 0.0);
+  for (std::size_t k = 0; k < gas_count; ++k)
+    gas_out.flow(PFU_GAS_ROW, chemistry_.slate_component[chemistry_.gases[k].liquid_component]) = profile.gas[k];
+  for (std::size_t c = 0; c < liquid_count; ++c)
+    liquor_out.flow(PFU_AQUEOUS_ROW, chemistry_.slate_component[c]) = profile.liquid[(n - 1) * liquid_count + c];
+  gas_out.temperature = profile.temperature.front();
+  gas_out.pressure = specification.pressure;
+  liquor_out.temperature = profile.temperature.back();
+  liquor_out.pressure = specification.pressure;
+
+  // Results per gas of the trade.
+  double gas_out_total = 0.0;
+  for (std::size_t k = 0; k < gas_count; ++k) gas_out_total += profile.gas[k];
+  const thermo::ChemicalSystem& system = *chemistry_.liquid_system;
+  const thermo::Speciation& spent = model_->state(n - 1);
+  const thermo::Speciation& fed = model_->state(n);
+  double reagent = 0.0, reagent_to_co2 = 0.0;
+  for (std::size_t t = 0; t < trade_gases.size(); ++t) {
+    const std::string gas_name = trade_gases[t];
+    double ppmv = not_a_number, concentration = not_a_number, removal = not_a_number;
+    for (std::size_t k = 0; k < gas_count; ++k) {
+      if (chemistry_.gases[k].component != trade_formulas[t]) continue;
+      ppmv = profile.gas[k] / gas_out_total * 1e6;
+      concentration = dry_concentration(profile, k);
+      if (feeds.gas[k] > 0.0) removal = 1.0 - profile.gas[k] / feeds.gas[k];
+    }
+    results.set("outlet_" + gas_name + "_ppmv", ppmv);
+    results.set("outlet_" + gas_name + "_concentration", concentration);
+    results.set("removal_" + gas_name, removal);
+  }
+  // Reagent: protons handed over by each gas that dissolves as one basis species.
+  for (std::size_t k = 0; k < gas_count; ++k) {
+    const ColumnGas& gas = chemistry_.gases[k];
+    const auto& nu = gas.data.stoichiometry;
+    std::size_t basis = none;
+    for (std::size_t b = 1; b < nu.size(); ++b)
+      if (nu[b] != 0.0) basis = b;
+    if (basis == none) continue;  // water
+    const double absorbed = feeds.gas[k] - profile.gas[k];
+    const double handed = absorbed * nu[0] / nu[basis] - (bound_protons(system, spent, basis) - bound_protons(system, fed, basis)) / nu[basis];
+    reagent += handed;
+    if (gas.component == "CO2") reagent_to_co2 = handed;
+  }
+  results.set("reagent_consumed", reagent);
+  results.set("reagent_to_co2", reagent_to_co2);
+  double water_evaporated = not_a_number;
+  for (std::size_t k = 0; k < gas_count; ++k)
+    if (chemistry_.gases[k].component == "H2O") water_evaporated = profile.gas[k] - feeds.gas[k];
+  results.set("water_evaporated", water_evaporated);
+  results.set("gas_outlet_temperature", profile.temperature.front());
+  results.set("liquor_outlet_temperature", profile.temperature.back());
+  results.set("liquor_outlet_ph", spent.ph);
+  results.set("newton_iterations", static_cast<double>(profile.iterations));
+
+  // Warnings, worst first.
+  const std::string prefix = "unit 'scrubber': ";
+  double stages_for_limit = not_a_number;
+  if (limit_gas_ != none) {
+    const double reached = dry_concentration(profile, limit_gas_);
+    const std::string gas_name = chemistry_.gases[limit_gas_].component;
+    // Fewest stages by bisection: removal grows with the stage count (docs/units.md).
+    std::size_t low = 0, high = none;
+    if (reached <= emission_limit_) {
+      high = n;
+    } else {
+      low = n;
+      const ColumnProfile most = solve_stages(most_stages_for_limit, specification, feeds);
+      if (dry_concentration(most, limit_gas_) <= emission_limit_) high = most_stages_for_limit;
+    }
+    while (high != none && high - low > 1) {
+      const std::size_t middle = (low + high) / 2;
+      if (dry_concentration(solve_stages(middle, specification, feeds), limit_gas_) <= emission_limit_) high = middle;
+      else low = middle;
+    }
+    if (high != none) stages_for_limit = static_cast<double>(high);
+    if (reached > emission_limit_) {
+      warnings.add(prefix + "the emission limit for " + gas_name + " is NOT met: " + number_text(reached * 1e6, 4) +
+                   " mg per normal m3 of dry gas against " + number_text(emission_limit_ * 1e6, 4) + " mg/m3; " +
+                   (high != none ? number_text(stages_for_limit, 3) + " stages would meet it at these flows"
+                                 : std::string("no column of up to 100 stages meets it with this liquor: change the liquor")));
+    }
+    // Stage profiles are re-solved for other stage counts: the reported state is this column's.
+    (void)solve_stages(n, specification, feeds);
+  }
+  results.set("stages_for_limit", stages_for_limit);
+
+  // Stage profiles from the column as solved (the search for the limit re-solved it last).
+  unit::Series& temperature_profile = results.series("stage_temperature");
+  unit::Series& ph_profile = results.series("stage_ph");
+  for (std::size_t j = 0; j < n; ++j) {
+    temperature_profile.add(double(j + 1), profile.temperature[j]);
+    ph_profile.add(double(j + 1), model_->state(j).ph);
+  }
+  for (std::size_t k = 0; k < gas_count; ++k) {
+    const ColumnGas& gas = chemistry_.gases[k];
+    const std::size_t trade = trade_index(gas.component);
+    if (trade == none && gas.component != "H2O") continue;
+    const std::string name = trade == none ? std::string("h2o") : std::string(trade_gases[trade]);
+    unit::Series& in_gas = results.series("stage_gas_" + name);
+    for (std::size_t j = 0; j < n; ++j) {
+      double stage_gas = 0.0;
+      for (std::size_t q = 0; q < gas_count; ++q) stage_gas += profile.gas[j * gas_count + q];
+      in_gas.add(double(j + 1), profile.gas[j * gas_count + k] / stage_gas);
+    }
+    if (trade == none) continue;
+    unit::Series& in_liquid = results.series("stage_liquid_" + name);
+    for (std::size_t j = 0; j < n; ++j)
+      in_liquid.add(double(j + 1), profile.liquid[j * liquid_count + gas.liquid_component] / model_->state(j).water_mass);
+  }
+
+  double highest_ph = 0.0;
+  double highest_index = -std::numeric_limits<double>::infinity();
+  std::string scaling_solid;
+  for (std::size_t j = 0; j < n; ++j) {
+    const thermo::Speciation& state = model_->state(j);
+    highest_ph = std::max(highest_ph, state.ph);
+    for (std::size_t s = 0; s < state.saturation_index.size(); ++s) {
+      if (state.saturation_index[s] > highest_index) {
+        highest_index = state.saturation_index[s];
+        scaling_solid = system.solids()[s].name;
+      }
+    }
+  }
+  if (reagent_to_co2 > 0.25 * reagent && reagent > 0.0 && highest_ph > carbon_dioxide_ph)
+    warnings.add(prefix + "the liquor reaches pH " + number_text(highest_ph, 3) + " and CO2 pickup takes " +
+                 number_text(100.0 * reagent_to_co2 / reagent, 3) +
+                 " % of the reagent: a lower pH setpoint or less reagent would waste less");
+  if (highest_index > scaling_index)
+    warnings.add(prefix + scaling_solid + " is near or beyond saturation in the liquor (saturation index " +
+                 number_text(highest_index, 3) + "): scale on packing and nozzles; the column does not precipitate it");
+  for (std::size_t k = 0; k < gas_count; ++k) {
+    if (chemistry_.gases[k].component == "Cl2" && feeds.gas[k] > 0.0)
+      warnings.add(prefix + "chlorine in the gas: toxic; in alkaline liquor it forms hypochlorite, which releases chlorine "
+                            "again if the spent liquor meets acid, and its hydrolysis is not modelled here");
+  }
+  units::warn_about_model(type, "spent liquor", spent, warnings);
+  units::InletPhases none_in{"inlets", 0.0, std::vector<double>(system.solids().size(), 0.0)};
+  units::warn_about_product(type, "scale on packing, nozzles and the sump", system, spent, none_in, warnings);
+  warnings.add(prefix + "emission limits and the design of a scrubber are set by the local permit and codes; these "
+                        "results are estimates for a qualified engineer to check");
+}
+
+}  // namespace protonflow::scrubber
