@@ -165,7 +165,7 @@ TEST_CASE("a recycle that does not converge is an error with its history, and no
   CHECK_FALSE(fs::exists(results));
 }
 
-TEST_CASE("a unit's warnings are printed once, at the unit's line of the flowsheet; the report points there") {
+TEST_CASE("a unit's warnings are printed once, at the unit's line of the flowsheet, and the report points there") {
   const ProgramRun warned = run(cases / "hot-mix.yaml");
   INFO("stdout: " << warned.out << "\nstderr: " << warned.err);
   CHECK(warned.exit_code == 0);
@@ -394,6 +394,39 @@ TEST_CASE("a list port is given within its bounds, and a plain port is not given
   const ProgramRun listed = run(file);
   CHECK(listed.exit_code == 1);
   CHECK_THAT(listed.err, Contains(file.string() + ":7:13: error:") && Contains("port 'feed' takes one stream, not a list"));
+}
+
+TEST_CASE("the acid mixer end to end: 98 % H2SO4 let down through run and check, with its mixing path") {
+  const fs::path flowsheet = fs::path(PROTONFLOW_EXAMPLES) / "flowsheets" / "sulfuric-acid-dilution.yaml";
+  const TemporaryDirectory directory;
+  const fs::path results_file = directory.path() / "results.yaml";
+  const ProgramRun ran = run(flowsheet, {"-o", results_file.string(), "--series-dir", directory.path().string()});
+  INFO("stdout: " << ran.out << "\nstderr: " << ran.err);
+  REQUIRE(ran.exit_code == 0);
+  const YAML::Node results = YAML::LoadFile(results_file.string());
+  // 1.8 t/h of 98 % acid with 7 t/h of water: 20.0 wt %, by the amounts alone (to 1e-6: the host
+  // converts t/h to mol/s and the unit back with molar masses from two sources, 1e-6 apart).
+  const double acid = 1.8 * 0.98, total = 1.8 + 7.0;
+  CHECK(result(results, "make_up", "solute_mass_fraction") == Approx(acid / total).epsilon(1e-6));
+  CHECK(result(results, "make_up", "model") == 1.0);
+  // Warmer than either feed, and the warnings printed once at the unit's line.
+  CHECK(result(results, "make_up", "outlet_temperature") > 298.15);
+  CHECK_THAT(ran.err, Contains(flowsheet.string() + ":") && Contains("unit 'make_up' (acid_mixer)") &&
+                          Contains("add acid to water, never water to acid"));
+  CHECK(results["units"]["make_up"]["series"]["mixing_path"]["points"].size() == 11);
+  CHECK(fs::exists(directory.path() / "make_up.mixing_path.csv"));
+  CHECK_THAT(ran.out, Contains("series mixing_path: 11 points"));
+
+  const fs::path expected = directory.path() / "expected.yaml";
+  const auto check = [&](std::vector<std::string> extra = {}) {
+    std::vector<std::string> arguments{"check", flowsheet.string(), "--expect", expected.string()};
+    arguments.insert(arguments.end(), extra.begin(), extra.end());
+    return run_protonflow(arguments);
+  };
+  REQUIRE(check({"--write-expect"}).exit_code == 0);
+  const ProgramRun checked = check();
+  INFO("check: " << checked.out << checked.err);
+  CHECK(checked.exit_code == 0);
 }
 
 TEST_CASE("units lists every type on the search path from its descriptors, and the modules that failed") {

@@ -101,7 +101,8 @@ TEST_CASE("solutions at the ends of the temperature range converge") {
 // with a step of 1e-6 agree to about 1e-9 of a row's largest entry; 1e-6 leaves room.
 TEST_CASE("the analytic Jacobian matches finite differences of the residual") {
   constexpr double agreement = 1e-6;
-  for (const ActivityModelKind model : {ActivityModelKind::ideal, ActivityModelKind::davies, ActivityModelKind::b_dot}) {
+  for (const ActivityModelKind model : {ActivityModelKind::ideal, ActivityModelKind::davies, ActivityModelKind::b_dot,
+                                         ActivityModelKind::pitzer}) {
     INFO("activity model " << static_cast<int>(model));
     SystemOptions options;
     options.activity = model;
@@ -134,6 +135,41 @@ TEST_CASE("the analytic Jacobian matches finite differences of the residual") {
       const Speciation s = solver.solve(298.15, 101325.0, std::vector<double>{kilogram_of_water, 0.5, 0.5});
       REQUIRE(s.gas_phase_present);
       CHECK(solver.jacobian_finite_difference_error() < agreement);
+    }
+  }
+}
+
+// A warm solve starts its first Newton step on the previous answer's LU (docs/equilibrium.md,
+// "Solving with KINSOL"); its answer must be the cold answer, whether the phase set stays, changes,
+// or the temperature moves.
+TEST_CASE("warm solves from a nearby state reach the cold answer, solids and gas included") {
+  SystemOptions options;
+  options.activity = ActivityModelKind::b_dot;
+  options.allowed_solids = {"gypsum", "calcite"};
+  options.open_gases = {"CO2(g)"};
+  const ChemicalSystem system(database(), {"H2O", "CaCl2", "Na2SO4", "NaOH"}, options);
+  EquilibriumSolver warm_solver(system);
+  const std::vector<double> air{42.0};  // Pa, CO2 of air (about 415 ppm, from memory)
+  Speciation warm, cold;
+  // Calcium from below to above gypsum saturation and back, 25 then 40 °C: steps of 1 % and a change
+  // of phase set on the way.
+  for (const double temperature : {298.15, 313.15}) {
+    for (double calcium = 0.01; calcium < 0.4; calcium *= 1.3) {
+      const std::vector<double> amounts{kilogram_of_water, calcium, 0.1, 0.02};
+      INFO("T " << temperature << " K, CaCl2 " << calcium << " mol");
+      for (const double step : {1.0, 1.01}) {
+        std::vector<double> nearby = amounts;
+        for (std::size_t c = 1; c < nearby.size(); ++c) nearby[c] *= step;
+        warm_solver.solve(temperature, 101325.0, nearby, air, warm);
+        EquilibriumSolver cold_solver(system);
+        cold_solver.solve(temperature, 101325.0, nearby, air, cold);
+        REQUIRE_FALSE(cold.warm_started);
+        for (std::size_t i = 0; i < cold.molality.size(); ++i)
+          CHECK(warm.molality[i] == Approx(cold.molality[i]).epsilon(1e-9).margin(1e-300));
+        for (std::size_t p = 0; p < cold.solid_amount.size(); ++p)
+          CHECK(warm.solid_amount[p] == Approx(cold.solid_amount[p]).epsilon(1e-9).margin(1e-15));
+        CHECK(warm.gas_uptake[0] == Approx(cold.gas_uptake[0]).epsilon(1e-9).margin(1e-15));
+      }
     }
   }
 }

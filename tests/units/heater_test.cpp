@@ -362,13 +362,33 @@ TEST_CASE("heater: what cannot be solved is an error with its reason, never a nu
   CHECK_THAT(boil_message, Catch::Contains("speciation did not converge at 373.14 K") &&
                                Catch::Contains("largest scaled residuals"));
 
-  const host::Slate acid{{"H2O", "HCl"}, {}};
-  host::StreamState dry = stream(acid, 298.15, atmosphere);
-  flow(dry, acid, PFU_GAS_ROW, "HCl") = 1.0;
-  auto dry_unit = create_heater({{"outlet_temperature", 310.0}}, acid);
+  // A dry gas row that is no gas of the species data is refused, naming the component.
+  const host::Slate salt{{"H2O", "NaCl"}, {}};
+  host::StreamState dry = stream(salt, 298.15, atmosphere);
+  flow(dry, salt, PFU_GAS_ROW, "NaCl") = 1.0;
+  auto dry_unit = create_heater({{"outlet_temperature", 310.0}}, salt);
   const auto [dry_status, dry_message] = status_and_message(dry_unit, dry);
   CHECK(dry_status == PFU_BAD_INLET);
-  CHECK_THAT(dry_message, Catch::Contains("no water"));
+  CHECK_THAT(dry_message, Catch::Contains("NaCl, which is no gas"));
+}
+
+TEST_CASE("heater: a dry gas is heated as it is, with the gas's heat capacity, and by duty back again") {
+  // 1 mol/s of dry CO2 from 25 to 75 °C: 50 K × c_p. The data's c_p of CO2(g) is NBS's 37.11 J/(mol K)
+  // at 298 K, held constant; the ideal-gas c_p rises to about 39.4 J/(mol K) at 350 K (NIST-JANAF,
+  // from memory), a mean of about 38.3 over the range: the duty within 5 % of 50 × 38.3 W.
+  const host::Slate gas_slate{{"H2O", "CO2"}, {}};
+  host::StreamState co2 = stream(gas_slate, 298.15, atmosphere);
+  flow(co2, gas_slate, PFU_GAS_ROW, "CO2") = 1.0;
+  auto unit = create_heater({{"outlet_temperature", 348.15}}, gas_slate);
+  const Run heated = run(unit, co2);
+  CHECK(heated.product.temperature == 348.15);
+  CHECK(heated.product.flows == co2.flows);  // no water, no reaction, no phase change
+  CHECK(heated.solution.results[duty] == Approx(50.0 * 38.3).epsilon(0.05));
+  CHECK(heated.solution.results[duty] == Approx(50.0 * 37.11).epsilon(1e-9));  // the data's own c_p, exactly
+  // By duty: the same duty takes it to the same temperature.
+  auto by_duty = create_heater({{"mode", std::string("by_duty")}, {"duty", heated.solution.results[duty]}}, gas_slate);
+  const Run back = run(by_duty, co2);
+  CHECK(back.product.temperature == Approx(348.15).epsilon(0.0).margin(1e-6));
 }
 
 TEST_CASE("heater: no flow in gives no flow out, and the pressure drop is applied") {

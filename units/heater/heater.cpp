@@ -1,6 +1,9 @@
 #include "heater.hpp"
 
+#include <boost/math/tools/roots.hpp>
+
 #include <algorithm>
+#include <cstdint>
 
 #include <protonflow/units/message_text.hpp>
 
@@ -34,6 +37,7 @@ Heater::Heater(const unit::Parameters& parameters, const unit::Slate& slate)
       pressure_drop_(parameters.number("pressure_drop")),
       system_(make_stream_system(type, slate, parameters.text("activity_model"))),
       placement_(type, *system_, slate),
+      dry_(type, *system_, slate),
       feed_(type, *system_),
       product_(type, *system_),
       feed_phases_{"feed", 0.0, {}} {}
@@ -70,6 +74,10 @@ void Heater::solve(std::span<const unit::InletState> inlets, std::span<unit::Out
     return;
   }
 
+  if (DryStream::is_dry(feed)) {
+    solve_dry(feed, outlet_pressure, product, results);
+    return;
+  }
   feed_.equilibrate(feed.temperature, feed.pressure, "equilibrating the feed at " + number_text(feed.temperature) + " K",
                     PFU_BAD_INLET);
   if (to_temperature_) {
@@ -101,6 +109,37 @@ void Heater::solve(std::span<const unit::InletState> inlets, std::span<unit::Out
   results.set("inlet_ph", in.ph);
   results.set("gas_flow", out.gas_phase_present ? out.gas_phase_amount : 0.0);
   results.set("solid_flow", solid_flow);
+}
+
+// A dry gas or dry solids heated or cooled as they are: no phase change, no reaction (there is no
+// water to react in), the enthalpy of each species at the temperature (dry_stream.hpp). By duty, the
+// temperature whose enthalpy meets the target, by TOMS 748 over the species data's range.
+void Heater::solve_dry(const unit::InletState& feed, double outlet_pressure, unit::OutletState& product,
+                       unit::Results& results) {
+  const double h_in = dry_.enthalpy(feed, feed.temperature, "the dry feed at " + number_text(feed.temperature) + " K");
+  double t_out = outlet_temperature_;
+  if (!to_temperature_) {
+    const double low = system_->minimum_temperature(), high = system_->maximum_temperature();
+    const auto miss = [&](double t) { return dry_.enthalpy(feed, t, "the dry product") - (h_in + duty_); };
+    if (!(miss(low) <= 0.0 && miss(high) >= 0.0)) {
+      throw unit::UnitError(PFU_INVALID_PARAMETER, "unit 'heater': a duty of " + number_text(duty_) +
+                                                       " W takes the dry feed outside the species data's " +
+                                                       number_text(low) + "-" + number_text(high) + " K");
+    }
+    std::uintmax_t iterations = 100;
+    const auto bracket = boost::math::tools::toms748_solve(miss, low, high, boost::math::tools::eps_tolerance<double>(50), iterations);
+    t_out = 0.5 * (bracket.first + bracket.second);
+  }
+  const double h_out = dry_.enthalpy(feed, t_out, "the dry product at " + number_text(t_out) + " K");
+  std::ranges::copy(feed.flows, product.flows.begin());
+  product.temperature = t_out;
+  product.pressure = outlet_pressure;
+  double solids = 0.0;
+  for (const double amount : dry_.solid_amount()) solids += amount;
+  results.set("duty", h_out - h_in);
+  results.set("outlet_temperature", t_out);
+  results.set("gas_flow", dry_.gas_amount());
+  results.set("solid_flow", solids);
 }
 
 }  // namespace protonflow::units

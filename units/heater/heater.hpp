@@ -15,6 +15,7 @@
 #include <memory>
 #include <span>
 
+#include <protonflow/units/dry_stream.hpp>
 #include <protonflow/units/equilibrium_stream.hpp>
 #include <protonflow/units/phase_placement.hpp>
 #include <protonflow/units/product_warnings.hpp>
@@ -56,12 +57,15 @@ class Heater {
              unit::Warnings& warnings);
 
  private:
+  void solve_dry(const unit::InletState& feed, double outlet_pressure, unit::OutletState& product, unit::Results& results);
+
   bool to_temperature_;
   double outlet_temperature_;  // K
   double duty_;                // W
   double pressure_drop_;       // Pa
   std::unique_ptr<thermo::ChemicalSystem> system_;  // the streams' solvers point at it: it must not move
   PhasePlacement placement_;
+  DryStream dry_;  // a feed without an aqueous phase: a dry gas, dry solids
   EquilibriumStream feed_;
   EquilibriumStream product_;
   InletPhases feed_phases_;

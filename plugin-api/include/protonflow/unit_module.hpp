@@ -225,6 +225,9 @@ class Series {
     ++count_;
   }
   void clear() noexcept { count_ = 0; }
+  // The i-th point filled so far (i < size()).
+  double x(std::size_t i) const { return x_[i]; }
+  double y(std::size_t i) const { return y_[i]; }
   std::size_t size() const noexcept { return count_; }
   std::size_t capacity() const noexcept { return x_.size(); }
   const char* name() const noexcept { return name_; }
