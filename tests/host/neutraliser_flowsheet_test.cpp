@@ -5,6 +5,8 @@
 #include <cmath>
 #include <filesystem>
 #include <map>
+#include <sstream>
+#include <utility>
 #include <string>
 #include <vector>
 
@@ -47,7 +49,9 @@ double total(const YAML::Node& results, const std::string& stream, const std::st
 TEST_CASE("run doses the demo acid waste to pH 9 with lime, and the tank balances with the reported dose") {
   const TemporaryDirectory directory;
   const fs::path results_file = directory.path() / "results.yaml";
-  const ProgramRun solved = run_protonflow({"run", flowsheet.string(), "-o", results_file.string()});
+  const fs::path series_directory = directory.path() / "series";
+  const ProgramRun solved =
+      run_protonflow({"run", flowsheet.string(), "-o", results_file.string(), "--series-dir", series_directory.string()});
   INFO("stdout: " << solved.out << "\nstderr: " << solved.err);
   REQUIRE(solved.exit_code == 0);
   CHECK_THAT(solved.out, Contains("outlet_ph") && Contains("reagent_flow") && Contains("process_gain"));
@@ -55,6 +59,24 @@ TEST_CASE("run doses the demo acid waste to pH 9 with lime, and the tank balance
   const YAML::Node results = YAML::LoadFile(results_file.string());
   CHECK(value(results, "outlet_ph") == Approx(9.0).margin(1e-6));
   CHECK(value(results, "dry_solids_flow") > 0.0);
+  // The titration curve as CSV: a header and the default 101 points, from the feed's pH at ratio 0
+  // up to twice the dose, rising.
+  const std::string csv = read_text(series_directory / "tank.titration.csv");
+  std::istringstream lines(csv);
+  std::string line;
+  std::getline(lines, line);
+  CHECK_THAT(line, Contains("reagent_ratio") && Contains("pH"));
+  std::vector<std::pair<double, double>> points;
+  while (std::getline(lines, line)) {
+    const std::size_t comma = line.find(',');
+    REQUIRE(comma != std::string::npos);
+    points.emplace_back(std::stod(line.substr(0, comma)), std::stod(line.substr(comma + 1)));
+  }
+  REQUIRE(points.size() == 101);
+  CHECK(points.front().first == 0.0);
+  CHECK(points.back().first == Approx(2.0 * value(results, "reagent_ratio")).epsilon(1e-12));
+  for (std::size_t i = 1; i < points.size(); ++i) CHECK(points[i].second >= points[i - 1].second);
+  CHECK(points[50].second == Approx(9.0).margin(0.01));  // the midpoint is the dose, at the outlet temperature
   // Every component of treated + vent = acid_waste + s lime_slurry, s the dose over the slurry's flow.
   const double slurry_kg_per_s = results["streams"]["lime_slurry"]["mass_flow_kg_per_s"].as<double>();
   const double s = value(results, "reagent_flow") / slurry_kg_per_s;

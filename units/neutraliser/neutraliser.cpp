@@ -48,6 +48,7 @@ Neutraliser::Neutraliser(const unit::Parameters& parameters, const unit::Slate& 
       analysis_(*system_),
       feed_(type, *system_),
       reagent_(type, *system_),
+      dry_(type, *system_, slate),
       product_(type, *system_),
       titration_(*system_),
       inlet_phases_{"inlets", 0.0, std::vector<double>(system_->solids().size(), 0.0)},
@@ -157,7 +158,9 @@ void Neutraliser::solve(std::span<const unit::InletState> inlets, std::span<unit
   reagent_.clear();
   double pressure = feed.pressure;
   while (reagent_streams_.size() < reagents.size()) reagent_streams_.emplace_back(type, *system_);
+  reagent_dry_.assign(reagents.size(), false);
   for (std::size_t k = 0; k < reagents.size(); ++k) {
+    reagent_dry_[k] = DryStream::is_dry(reagents[k]);
     reagent_.add(reagents[k]);
     reagent_streams_[k].clear();
     reagent_streams_[k].add(reagents[k]);
@@ -175,8 +178,17 @@ void Neutraliser::solve(std::span<const unit::InletState> inlets, std::span<unit
   feed_.equilibrate(feed.temperature, feed.pressure, "equilibrating the feed at " + number_text(feed.temperature) + " K",
                     PFU_BAD_INLET);
   double reagent_enthalpy = 0.0;
+  std::vector<double> dry_reagent_solids(system_->solids().size(), 0.0);
+  double dry_gas = 0.0;
   for (std::size_t k = 0; k < reagents.size(); ++k) {
     if (reagent_streams_[k].empty()) continue;
+    if (reagent_dry_[k]) {
+      // Dry lime or soda ash: no water to equilibrate in, so its phases as given (dry_stream.hpp).
+      reagent_enthalpy += dry_.enthalpy(reagents[k], reagents[k].temperature, "reagent " + std::to_string(k + 1) + " (dry)");
+      dry_gas += dry_.gas_amount();
+      for (std::size_t s = 0; s < dry_reagent_solids.size(); ++s) dry_reagent_solids[s] += dry_.solid_amount()[s];
+      continue;
+    }
     reagent_streams_[k].equilibrate(reagents[k].temperature, reagents[k].pressure,
                                     "equilibrating reagent " + std::to_string(k + 1) + " at " +
                                         number_text(reagents[k].temperature) + " K",
@@ -225,11 +237,11 @@ void Neutraliser::solve(std::span<const unit::InletState> inlets, std::span<unit
   std::ranges::fill(gas_row, 0.0);
 
   // Warnings: the shared ones about the product and the models, then the neutraliser's own.
-  inlet_phases_.gas_amount = 0.0;
-  std::ranges::fill(inlet_phases_.solid_amount, 0.0);
+  inlet_phases_.gas_amount = scale * dry_gas;
+  for (std::size_t s = 0; s < dry_reagent_solids.size(); ++s) inlet_phases_.solid_amount[s] = scale * dry_reagent_solids[s];
   for (std::size_t k = 0; k <= reagents.size(); ++k) {
     const EquilibriumStream& inlet = k == 0 ? feed_ : reagent_streams_[k - 1];
-    if (inlet.empty()) continue;
+    if (inlet.empty() || (k > 0 && reagent_dry_[k - 1])) continue;
     const double share = k == 0 ? 1.0 : scale;
     const thermo::Speciation& in = inlet.state();
     if (in.gas_phase_present) inlet_phases_.gas_amount += share * in.gas_phase_amount;
@@ -240,7 +252,7 @@ void Neutraliser::solve(std::span<const unit::InletState> inlets, std::span<unit
   warn_about_release(type, *system_, out, warnings);
   warn_about_model(type, "feed", feed_.state(), warnings);
   for (std::size_t k = 0; k < reagents.size(); ++k) {
-    if (!reagent_streams_[k].empty()) {
+    if (!reagent_streams_[k].empty() && !reagent_dry_[k]) {
       warn_about_model(type, "reagent " + std::to_string(k + 1), reagent_streams_[k].state(), warnings);
     }
   }

@@ -12,6 +12,7 @@
 #include <protonflow/unit_module.hpp>
 
 #include <protonflow/thermo/chemical_system.hpp>
+#include <protonflow/units/dry_stream.hpp>
 #include <protonflow/units/equilibrium_stream.hpp>
 #include <protonflow/units/phase_placement.hpp>
 #include <protonflow/units/product_warnings.hpp>
@@ -32,7 +33,7 @@ class Neutraliser {
   static constexpr std::uint32_t all_phases = PFU_PHASE_AQUEOUS | PFU_PHASE_GAS | PFU_PHASE_SOLID;
   static constexpr const char* type = "neutraliser";
   static constexpr const char* summary =
-      "Doses a reagent into an acid or alkaline waste to a set flow or a target pH: precipitation, off-gas, heat, "
+      "Doses reagents into an acid or alkaline waste to a set flow or a target pH: precipitation, off-gas, heat, "
       "titration gain";
   static constexpr std::array ports{
       unit::inlet("feed", all_phases, "the waste to treat, acid or alkaline, solids allowed"),
@@ -46,7 +47,7 @@ class Neutraliser {
   static constexpr std::array<const char*, 2> energy_modes{"adiabatic", "at_temperature"};
   static constexpr std::array parameters{
       unit::choice("mode", modes, "fixed_reagent",
-                   "fixed_reagent: the reagent inlet's flow is dosed, the pH is the result; target_ph: the reagent "
+                   "fixed_reagent: the reagents are dosed as they come, the pH is the result; target_ph: the reagent "
                    "flow that gives target_ph is the result"),
       unit::number("target_ph", "1", 7.0, 0.0, 14.0, "the pH to dose to; used with mode target_ph only"),
       unit::number("max_reagent_ratio", "1", 1.0, 1e-9, 1e6,
@@ -128,6 +129,8 @@ class Neutraliser {
   EquilibriumStream feed_;
   EquilibriumStream reagent_;                  // every reagent together: the titration's
   std::vector<EquilibriumStream> reagent_streams_;  // one per reagent stream, for its enthalpy
+  std::vector<bool> reagent_dry_;                   // per reagent stream: no aqueous phase (dry lime, say)
+  DryStream dry_;                                   // the enthalpy of a dry reagent, its phases as given
   EquilibriumStream product_;
   Titration titration_;
   InletPhases inlet_phases_;

@@ -1,5 +1,6 @@
 #include "titration.hpp"
 
+#include <protonflow/thermo/errors.hpp>
 #include <protonflow/unit_module.hpp>
 #include <protonflow/units/message_text.hpp>
 
@@ -88,7 +89,17 @@ double Titration::find_ratio(double target, double temperature, double pressure,
                               number_text(ratio_max, 4) + " kg/kg); the target needs " + (needs_raise ? "a base" : "an acid"));
   }
   if ((raises && end < target) || (!raises && end > target)) {
-    const double limit = reagent_ph(temperature, pressure);
+    double limit = 0.0;
+    try {
+      limit = reagent_ph(temperature, pressure);
+    } catch (const thermo::ThermoError&) {
+      // A dry reagent (lime powder) has no water and so no pH of its own to bound the curve.
+      throw unit::UnitError(PFU_INVALID_PARAMETER,
+                            prefix + "not reached within max_reagent_ratio " + number_text(ratio_max, 4) +
+                                " kg/kg, where the pH is " + number_text(end, 4) +
+                                "; the reagent alone cannot be equilibrated (it carries no water), so the highest pH it "
+                                "can give is not known here: raise max_reagent_ratio or choose a stronger reagent");
+    }
     const bool beyond_reagent = raises ? target >= limit : target <= limit;
     if (beyond_reagent) {
       throw unit::UnitError(PFU_INVALID_PARAMETER,
