@@ -80,7 +80,7 @@ TEST_CASE("run doses the demo acid waste to pH 9 with lime, and the tank balance
   // Every component of treated + vent = acid_waste + s lime_slurry, s the dose over the slurry's flow.
   const double slurry_kg_per_s = results["streams"]["lime_slurry"]["mass_flow_kg_per_s"].as<double>();
   const double s = value(results, "reagent_flow") / slurry_kg_per_s;
-  for (const std::string component : {"H2O", "H2SO4", "ZnO", "Fe(OH)3", "Ca(OH)2"}) {
+  for (const std::string component : {"H2O", "H2SO4", "ZnO", "FeOOH", "Ca(OH)2"}) {
     INFO(component);
     const double in = total(results, "acid_waste", component) + s * total(results, "lime_slurry", component);
     const double out = total(results, "treated", component) + total(results, "vent", component);
