@@ -111,3 +111,29 @@ TEST_CASE("scrubber: dry nitrogen leaves at the adiabatic-saturation temperature
   CHECK(y_out == Approx(p_sat / atmosphere).epsilon(0.005));  // saturated at T_as, IAPWS-95
   CHECK(result(unit, solution, "water_evaporated") == Approx(water_out).epsilon(1e-12));
 }
+
+TEST_CASE("scrubber: outlet concentrations corrected to a reference oxygen content", "[scrubber]") {
+  // C_ref = C (21 − O_ref) / (21 − O_gas), O in volume percent of dry gas (eu-ied-2010, Annex VI).
+  const host::Slate slate{{"H2O", "N2", "O2", "HCl"}, {}};
+  const auto outlet = [&](std::vector<ParameterValue> parameters, host::StreamState& gas_out) {
+    auto unit = scrubber_module().create("scrubber", parameters, slate);
+    host::StreamState gas = stream(slate, 298.15, atmosphere);
+    flow(gas, slate, PFU_GAS_ROW, "N2") = 0.85;
+    flow(gas, slate, PFU_GAS_ROW, "O2") = 0.15;
+    flow(gas, slate, PFU_GAS_ROW, "HCl") = 1e-3;
+    host::StreamState liquor = stream(slate, 298.15, atmosphere);
+    flow(liquor, slate, PFU_AQUEOUS_ROW, "H2O") = 0.2 * mol_per_kg_water;
+    const std::vector<host::StreamState> inlets{gas, liquor};
+    std::vector<host::StreamState> outlets(2);
+    const host::Solution solution = unit.solve(inlets, outlets);
+    gas_out = outlets[0];
+    return result(unit, solution, "outlet_hcl_concentration");
+  };
+  host::StreamState gas_out;
+  const double as_measured = outlet({{"stages", 1.0}, {"efficiency", 0.5}}, gas_out);
+  const double corrected = outlet({{"stages", 1.0}, {"efficiency", 0.5}, {"reference_oxygen", 0.11}}, gas_out);
+  const double o2 = flow(gas_out, slate, PFU_GAS_ROW, "O2");
+  const double dry = o2 + flow(gas_out, slate, PFU_GAS_ROW, "N2") + flow(gas_out, slate, PFU_GAS_ROW, "HCl");
+  REQUIRE(as_measured > 0.0);
+  CHECK(corrected / as_measured == Approx((0.21 - 0.11) / (0.21 - o2 / dry)).epsilon(1e-12));
+}
