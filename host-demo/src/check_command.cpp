@@ -10,6 +10,7 @@
 #include "flowsheet_commands.hpp"
 #include "flowsheet_results.hpp"
 #include "flowsheet_session.hpp"
+#include "junit_report.hpp"
 #include "stream_properties.hpp"
 
 namespace protonflow::host {
@@ -36,6 +37,9 @@ int check_flowsheet(const CheckOptions& options, std::ostream& out, std::ostream
       return exit_ok;
     }
     const Comparison comparison = compare(expected, actual, quantities);
+    if (!options.junit_file.empty()) {
+      write_file_atomically(options.junit_file, junit_xml(comparison, options.file, options.expect_file));
+    }
     if (comparison.differences.empty()) {
       out << fmt::format("check passed: all {} quantities of {} match {}\n", comparison.compared, options.file,
                          options.expect_file);

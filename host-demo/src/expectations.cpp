@@ -268,6 +268,8 @@ Comparison compare(const Expectations& expected, const std::vector<ResultQuantit
         }
         comparison.differences.push_back({value.path, fmt::format("{} warnings", value.value),
                                           fmt::format("{} warnings", quantity.value), "", "exact", note});
+      } else {
+        comparison.matched.push_back(value.path);
       }
       continue;
     }
@@ -300,6 +302,8 @@ Comparison compare(const Expectations& expected, const std::vector<ResultQuantit
       comparison.differences.push_back({value.path, show(value.value), show(quantity.value),
                                         std::isfinite(difference) ? fmt::format("{:.3g}", difference) : "-",
                                         fmt::format("{:.3g}", allowed), ""});
+    } else {
+      comparison.matched.push_back(value.path);
     }
   }
   for (const ResultQuantity& quantity : actual) {

@@ -55,6 +55,7 @@ struct Difference {
 
 struct Comparison {
   std::size_t compared = 0;
+  std::vector<std::string> matched;  // paths of the expected quantities within their tolerance
   std::vector<Difference> differences;
 };
 

@@ -30,6 +30,7 @@ struct RunOptions : FlowsheetOptions {
 struct CheckOptions : FlowsheetOptions {
   std::string expect_file;
   bool write_expect = false;
+  std::string junit_file;  // --junit: the comparison as a JUnit XML report; empty: none
 };
 
 struct UnitsOptions {

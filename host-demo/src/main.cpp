@@ -66,6 +66,8 @@ int main(int argc, char** argv) {
     check_command->add_option("--expect", check.expect_file, "expectations file (YAML)")->required();
     check_command->add_flag("--write-expect", check.write_expect,
                             "record the results as the new expectations (keeping the file's tolerances)");
+    check_command->add_option("--junit", check.junit_file,
+                              "also write the comparison as a JUnit XML report to this file, one test case per quantity");
     add_unit_dirs(check_command, check.unit_dirs);
     add_data_dir(check_command, data_directory);
 

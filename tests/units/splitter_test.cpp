@@ -269,3 +269,25 @@ TEST_CASE("splitter: a feed with no flow gives outlets with no flow") {
   CHECK(solution.results[0] == 0.0);
   CHECK(solution.series[0].y == std::vector<double>{0.25, 0.75});
 }
+
+TEST_CASE("splitter: solids_to sends every solid to one outlet, an ideal settler, and the rest is split as given") {
+  auto unit = create_splitter({{"fraction_1", 0.3}, {"fraction_2", 0.7}, {"solids_to", 2.0}}, slate);
+  const host::StreamState feed = three_phase_feed();
+  auto outlets = outlets_for(2);
+  split(unit, feed, outlets);
+  const std::size_t columns = slate.components.size();
+  for (std::size_t k = 0; k < feed.flows.size(); ++k) {
+    if (k / columns >= PFU_FIRST_SOLID_ROW) {
+      CHECK(outlets[0].flows[k] == 0.0);
+      CHECK(outlets[1].flows[k] == feed.flows[k]);
+    } else {
+      CHECK(outlets[0].flows[k] == feed.flows[k] * 0.3);
+      // the last outlet takes the rest: the sum is the feed to one ulp (docs/units.md, "mass balance")
+      CHECK(std::abs(outlets[0].flows[k] + outlets[1].flows[k] - feed.flows[k]) <= ulp(feed.flows[k]));
+    }
+  }
+  CHECK(flow(outlets[1], slate, PFU_FIRST_SOLID_ROW, "CaSO4.2H2O") == 0.0123);
+  CHECK_THAT(create_error({{"fraction_1", 0.5}, {"fraction_2", 0.5}, {"solids_to", 3.0}}),
+             Catch::Contains("'solids_to' is 3") && Catch::Contains("from 1 to 2, or 0"));
+  CHECK_THAT(create_error({{"fraction_1", 0.5}, {"fraction_2", 0.5}, {"solids_to", 1.5}}), Catch::Contains("whole number"));
+}

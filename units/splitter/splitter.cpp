@@ -59,7 +59,9 @@ class Splitter {
       unit::number("flow_4", "mol/s", 0.0, 0.0, unit::unbounded, "total molar flow to the fourth outlet (split_by flows)"),
       unit::number("flow_5", "mol/s", 0.0, 0.0, unit::unbounded, "total molar flow to the fifth outlet (split_by flows)"),
       unit::number("flow_6", "mol/s", 0.0, 0.0, unit::unbounded, "total molar flow to the sixth outlet (split_by flows)"),
-      unit::number("flow_7", "mol/s", 0.0, 0.0, unit::unbounded, "total molar flow to the seventh outlet (split_by flows)")};
+      unit::number("flow_7", "mol/s", 0.0, 0.0, unit::unbounded, "total molar flow to the seventh outlet (split_by flows)"),
+      unit::number("solids_to", "1", 0.0, 0.0, double(max_outlets),
+                   "the outlet (1 to 8, by its place in the list) that takes every solid, as an ideal settler's underflow; 0: solids split like the rest")};
   static constexpr std::array results{
       unit::result("feed_flow", "mol/s", "total molar flow of the feed, all phases and components")};
   static constexpr std::array series{unit::series("shares", "outlet", "1", "share", "1", max_outlets,
@@ -68,7 +70,7 @@ class Splitter {
   // The shares series holds one point per outlet, a number fixed by the parameters at create.
   std::size_t series_length(std::size_t) const { return outlets_; }
 
-  Splitter(const unit::Parameters& parameters, const unit::Slate&) {
+  Splitter(const unit::Parameters& parameters, const unit::Slate& slate) : columns_(slate.components.size()) {
     by_fractions_ = parameters.text("split_by") == "fractions";
     const char* const own = by_fractions_ ? "fraction_" : "flow_";
     const char* const other = by_fractions_ ? "flow_" : "fraction_";
@@ -100,6 +102,13 @@ class Splitter {
                                                          std::string(by_fractions_ ? "fractions" : "flows"));
       }
     }
+    const double solids_to = parameters.number("solids_to");
+    if (solids_to != std::floor(solids_to) || solids_to > double(outlets_)) {
+      throw unit::UnitError(PFU_INVALID_PARAMETER, "unit 'splitter': parameter 'solids_to' is " + number_text(solids_to) +
+                                                       "; give the place of an outlet, a whole number from 1 to " +
+                                                       std::to_string(outlets_) + ", or 0");
+    }
+    solids_to_ = static_cast<std::size_t>(solids_to);
     if (by_fractions_) {
       double sum = 0.0;
       for (std::size_t i = 0; i < outlets_; ++i) sum += given_[i];
@@ -151,6 +160,11 @@ class Splitter {
     const std::size_t last = outlets_ - 1;
     for (std::size_t k = 0; k < feed.flows.size(); ++k) {
       const double in = feed.flows[k];
+      if (solids_to_ > 0 && k / columns_ >= PFU_FIRST_SOLID_ROW) {
+        // An ideal settler: every solid to its underflow outlet, none elsewhere.
+        for (std::size_t i = 0; i < outlets_; ++i) outlets[i].flows[k] = i + 1 == solids_to_ ? in : 0.0;
+        continue;
+      }
       double sent = 0.0;
       std::size_t largest = 0;
       for (std::size_t i = 0; i < last; ++i) {
@@ -181,6 +195,8 @@ class Splitter {
   }
 
  private:
+  std::size_t columns_ = 0;  // components of the slate: the flows of a phase row
+  std::size_t solids_to_ = 0;  // 1-based outlet taking every solid; 0: solids split like the rest
   std::size_t outlets_ = 2;  // fixed by the parameters given; the flowsheet must connect as many
   bool by_fractions_ = true;
   std::array<double, max_outlets> given_{};  // fractions (1) or flows (mol/s), in outlet order

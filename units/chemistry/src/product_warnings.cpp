@@ -3,6 +3,7 @@
 #include <cstddef>
 
 #include <protonflow/thermo/pitzer_coverage.hpp>
+
 #include <protonflow/units/message_text.hpp>
 
 namespace protonflow::units {
