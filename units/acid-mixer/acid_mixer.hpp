@@ -50,7 +50,7 @@ class AcidMixer {
       unit::number("material_temperature_limit", "K", 373.15, 273.15, 1273.15,
                    "highest temperature the vessel's material may see; warned of only when given"),
       unit::number("path_points", "1", 21.0, 2.0, 1001.0, "points of the mixing path series, a whole number"),
-      activity_model_parameter};
+      activity_model_parameter, precipitate_form_parameter};
   static constexpr std::array results{
       unit::result("duty", "W", "heat added, H_out - sum of the inlets' H (negative: removed); 0 when adiabatic"),
       unit::result("outlet_temperature", "K", "product temperature"),

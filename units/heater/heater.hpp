@@ -42,7 +42,7 @@ class Heater {
       unit::number("duty", "W", 0.0, -unit::unbounded, unit::unbounded,
                    "heat added (negative: removed); used with mode by_duty only"),
       unit::number("pressure_drop", "Pa", 0.0, 0.0, unit::unbounded, "pressure lost from feed to product"),
-      activity_model_parameter};
+      activity_model_parameter, precipitate_form_parameter};
   static constexpr std::array results{
       unit::result("duty", "W", "heat added, H_out - H_in as computed (negative: removed)"),
       unit::result("outlet_temperature", "K", "product temperature"),

@@ -72,7 +72,7 @@ class Neutraliser {
       unit::number("curve_ratio_max", "1", 0.0, 0.0, 1e6,
                    "kg of reagent per kg of feed at the curve's end; 0: twice the operating ratio (max_reagent_ratio "
                    "where that is 0)"),
-      activity_model_parameter};
+      activity_model_parameter, precipitate_form_parameter};
   static constexpr std::array results{
       unit::result("outlet_ph", "1", "pH of the treated liquor, -log10 a(H+)"),
       unit::result("feed_ph", "1", "pH of the feed at its own equilibrium"),

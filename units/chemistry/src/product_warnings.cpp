@@ -50,7 +50,9 @@ void warn_about_product(std::string_view unit_type, std::string_view fouling, co
   for (std::size_t s = 0; s < list.size(); ++s) {
     const double amount = product.solid_amount[s];
     if (amount <= 0.0) continue;
-    solids += (solids.empty() ? "" : ", ") + list[s].name + " " + number_text(amount, 4) + " mol/s (" + inlets.label +
+    // A solid with a fresh and an aged form says which one the unit was asked for.
+    const std::string form = list[s].age == thermo::PrecipitateAge::any ? "" : std::string(" (") + thermo::to_string(list[s].age) + " form)";
+    solids += (solids.empty() ? "" : ", ") + list[s].name + form + " " + number_text(amount, 4) + " mol/s (" + inlets.label +
               " at equilibrium " + number_text(inlets.solid_amount[s], 4) + ")";
   }
   if (!solids.empty()) warnings.add(prefix + "solids precipitate in the product: " + solids + ": " + std::string(fouling));

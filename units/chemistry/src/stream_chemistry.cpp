@@ -21,13 +21,15 @@ const thermo::Database& module_database() {
 }  // namespace
 
 std::unique_ptr<thermo::ChemicalSystem> make_stream_system(std::string_view unit_type, const unit::Slate& slate,
-                                                           const std::string& activity_model) {
+                                                           const std::string& activity_model,
+                                                           const std::string& precipitate_form) {
   const std::string prefix = "unit '" + std::string(unit_type) + "': ";
   if (!slate.find_component("H2O")) throw unit::UnitError(PFU_INVALID_PARAMETER, prefix + "the slate must include H2O, the solvent");
   thermo::SystemOptions options;
   options.activity = activity_model == "b-dot"    ? thermo::ActivityModelKind::b_dot
                      : activity_model == "pitzer" ? thermo::ActivityModelKind::pitzer
                                                   : thermo::ActivityModelKind::davies;
+  options.precipitates = precipitate_form == "aged" ? thermo::PrecipitateAge::aged : thermo::PrecipitateAge::fresh;
   const thermo::Database* shared = nullptr;
   try {
     shared = &module_database();
