@@ -39,7 +39,9 @@ PitzerParameters every_term() {
   PitzerParameters p;
   p.binary.push_back({"Na^+", "Cl^-", {0.08, 1e-3, 0}, {0.27, 1e-3, 0}, {}, {0.0013, -1e-4, 0}});
   p.binary.push_back({"Ca^2+", "SO4^2-", {0.2, 0, 0}, {3.2, 0, 0}, {-54, 0, 0}, {}, 1.4, 12.0});
-  p.binary.push_back({"H^+", "SO4^2-", {0.03, 0, 0}, {}, {}, {0.044, 0, 0}});
+  // Archer's C¹ term and an α₁ that varies with T, as Clegg, Rard & Pitzer (1994) give for H^+–SO4^2-
+  p.binary.push_back({"H^+", "SO4^2-", {0.03, 0, 0}, {0.31, 2e-3, 0}, {}, {0.044, 0, 0}, 2.0, 0.0, {-0.32, 1e-3, 0}, 2.5,
+                      -1842.843});
   p.theta.push_back({"Na^+", "Ca^2+", {0.07, 0, 0}});
   p.psi.push_back({"Na^+", "Ca^2+", "Cl^-", {-0.007, 0, 0}});
   p.lambda.push_back({"CO2(aq)", "Na^+", {0.1, 0, 0}});
@@ -145,6 +147,30 @@ TEST_CASE("Pitzer relative partial molal enthalpies are the derivatives of the r
     euler += m[k] * partial[k];
   }
   CHECK(euler == Approx(model.relative_enthalpy(310.0, 1e5, m)).epsilon(1e-10));
+}
+
+TEST_CASE("Pitzer C1 term: the osmotic coefficient takes Archer's form C0 + C1 exp(-omega sqrt I)") {
+  // Archer (1992): with C^T = C⁰ + 4C¹ h(ω√I) in the excess Gibbs energy, the osmotic coefficient of
+  // a 1:1 salt gains 2m² (C⁰ + C¹ e^−ω√I) (Pitzer 1991, eq. 3.60 with Z = 2m): checked at low and
+  // high I (the series and the closed form of h), against the same model without the term.
+  SoluteProperties p;
+  p.charge = {1, -1};
+  p.ion_size_angstrom = {9, 4};
+  p.name = {"H^+", "HSO4^-"};
+  PitzerParameters bare, with_c;
+  bare.binary.push_back({"H^+", "HSO4^-", {0.2, 0, 0}, {0.4, 0, 0}, {}, {}});
+  with_c.binary.push_back({"H^+", "HSO4^-", {0.2, 0, 0}, {0.4, 0, 0}, {}, {-0.006, 0, 0}, 2.0, 0.0, {-0.41, 0, 0}, 2.5});
+  const PitzerModel without(p, bare), with(p, with_c);
+  for (const double m : {1e-3, 0.05, 0.3, 2.0, 6.0}) {
+    ActivityEvaluation a(2), b(2);
+    const std::vector<double> molality{m, m};
+    with.evaluate(298.15, 1e5, molality, a);
+    without.evaluate(298.15, 1e5, molality, b);
+    const auto phi = [&](const ActivityEvaluation& e) { return -e.ln_water_activity / (constants::water_molar_mass * 2 * m); };
+    const double c_phi = -0.006 / 2 + -0.41 * std::exp(-2.5 * std::sqrt(m));  // C⁰ = Cφ/2 for 1:1
+    INFO("m = " << m);
+    CHECK(phi(a) - phi(b) == Approx(2 * m * m * c_phi).epsilon(1e-8));
+  }
 }
 
 TEST_CASE("Pitzer model names the species it has no parameters for") {
