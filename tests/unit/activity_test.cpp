@@ -242,6 +242,11 @@ TEST_CASE("the Pitzer parameter file: bundled set read, bad entries refused with
   const PitzerParameters& bundled = bundled_pitzer_parameters();
   CHECK(bundled.binary.size() >= 30);
   CHECK(bundled.maximum_ionic_strength == 6.0);
+  // The HSO4^- constant fitted with the sulfuric-acid parameters: K2 = 0.010500 at 25 °C, log10 K2 = −1.97882
+  // (Clegg, Rard & Pitzer 1994, eq. 21), held as the formation constant of HSO4^- in the five-term form.
+  REQUIRE(bundled.equilibrium_constants.size() == 1);
+  CHECK(bundled.equilibrium_constants[0].species == "HSO4^-");
+  CHECK(log_k(bundled.equilibrium_constants[0].log_k, 298.15, 101325.0) == Approx(1.97882).margin(1e-4));
   const auto directory = std::filesystem::temp_directory_path() / "protonflow-pitzer-parameters";
   std::filesystem::create_directories(directory);
   const auto refused = [&](const std::string& name, const std::string& text, int line, int column, const std::string& what) {
@@ -265,5 +270,14 @@ TEST_CASE("the Pitzer parameter file: bundled set read, bad entries refused with
           3, 5, "theta of K^+ Na^+ is listed twice");
   refused("lambda-ion-first", "lambda:\n  - {species: [Na^+, CO2(aq)], lambda: {value: 1, source: x}}\n", 2, 15, "a neutral species first");
   refused("psi-signs", "psi:\n  - {species: [Na^+, Cl^-, K^+], psi: {value: 1, source: x}}\n", 2, 15, "two different ions of one sign");
+  refused("c0-and-c_phi",
+          "binary:\n  - species: [H^+, HSO4^-]\n    beta0: {value: 0.2, source: x}\n    c_phi: {value: 0.01, source: x}\n"
+          "    c0: {value: 0.005, source: x}\n",
+          5, 9, "either c_phi or c0");
+  refused("constant-without-reaction", "equilibrium_constants:\n  - species: HSO4^-\n    five_term_log10_K: {constant: 2, source: x}\n",
+          2, 5, "needs 'reaction'");
+  refused("constant-without-source",
+          "equilibrium_constants:\n  - species: HSO4^-\n    reaction: {H^+: 1, SO4^2-: 1}\n    five_term_log10_K: {constant: 2}\n", 2, 5,
+          "with its 'source'");
   std::filesystem::remove_all(directory);
 }
