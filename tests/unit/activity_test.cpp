@@ -173,6 +173,25 @@ TEST_CASE("Pitzer C1 term: the osmotic coefficient takes Archer's form C0 + C1 e
   }
 }
 
+TEST_CASE("Pitzer parameters are held at the edge of their fitted temperature range") {
+  // Beyond maximum_temperature a pair's parameters keep their values there: a model whose β⁰(T) has
+  // a slope but stops at 310 K equals, at 350 K, a model holding β⁰(310 K) as a constant.
+  SoluteProperties p;
+  p.charge = {1, -1};
+  p.ion_size_angstrom = {9, 4};
+  p.name = {"H^+", "HSO4^-"};
+  PitzerParameters sloped, held;
+  sloped.binary.push_back({"H^+", "HSO4^-", {0.2, 5e-3, 1e-4}, {0.4, 0, 0}, {}, {}, 2.0, 0.0, {-0.4, 2e-3, 0}, 2.5, -1000.0});
+  sloped.binary.back().maximum_temperature = 310.0;
+  const double dt = 310.0 - 298.15;
+  held.binary.push_back({"H^+", "HSO4^-", {0.2 + 5e-3 * dt + 0.5e-4 * dt * dt, 0, 0}, {0.4, 0, 0}, {}, {}, 2.0 - 1000.0 * (1 / 310.0 - 1 / 298.15),
+                         0.0, {-0.4 + 2e-3 * dt, 0, 0}, 2.5});
+  const PitzerModel a(p, sloped), b(p, held);
+  const std::vector<double> m{2.0, 2.0};
+  CHECK(a.excess_gibbs_energy(350.0, 1e5, m) == Approx(b.excess_gibbs_energy(350.0, 1e5, m)).epsilon(1e-12));
+  CHECK(a.excess_gibbs_energy(305.0, 1e5, m) != Approx(b.excess_gibbs_energy(305.0, 1e5, m)).epsilon(1e-6));
+}
+
 TEST_CASE("Pitzer model names the species it has no parameters for") {
   SoluteProperties p;
   p.charge = {1, -1, 1, 0};

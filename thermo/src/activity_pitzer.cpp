@@ -137,6 +137,7 @@ struct PairTerm {
   // the parameters as functions of T, copied so that the model outlives the parameter set it was built from
   PitzerCoefficient beta0_t{}, beta1_t{}, beta2_t{}, c_phi_t{}, c1_t{};  // cation–anion pairs
   double alpha1 = 2.0, alpha2 = 0.0, alpha1_reciprocal_T = 0.0, omega = 2.5;
+  double minimum_temperature = 0.0, maximum_temperature = 1e9;  // K, the fit's range: held at its edges
   std::size_t alpha1_index = 0, alpha2_index = 0;  // into Impl::alphas
   PitzerCoefficient constant_t{};  // θ or λ (zero for a pair with Eθ alone)
   // the same at the cached temperature; c = C⁰ = Cφ/(2√|z_c z_a|), c1 = C¹
@@ -182,16 +183,15 @@ struct PitzerModel::Impl {
     a_phi = debye_huckel_parameters(temperature, pressure).a * constants::ln10 / 3.0;
     for (PairTerm& p : pairs) {
       if (p.kind == PairKind::cation_anion) {
-        p.beta0 = p.beta0_t.at(temperature);
-        p.beta1 = p.beta1_t.at(temperature);
-        p.beta2 = p.beta2_t.at(temperature);
+        const double t = std::clamp(temperature, p.minimum_temperature, p.maximum_temperature);
+        p.beta0 = p.beta0_t.at(t);
+        p.beta1 = p.beta1_t.at(t);
+        p.beta2 = p.beta2_t.at(t);
         // C = Cφ / (2 √|z_c z_a|) (Pitzer 1991, eq. 3.63)
-        p.c = p.c_phi_t.at(temperature) /
-              (2.0 * std::sqrt(std::abs(static_cast<double>(solutes.charge[p.i] * solutes.charge[p.j]))));
-        p.c1 = p.c1_t.at(temperature);
+        p.c = p.c_phi_t.at(t) / (2.0 * std::sqrt(std::abs(static_cast<double>(solutes.charge[p.i] * solutes.charge[p.j]))));
+        p.c1 = p.c1_t.at(t);
         if (p.alpha1_reciprocal_T != 0.0)
-          alphas[p.alpha1_index] =
-              p.alpha1 + p.alpha1_reciprocal_T * (1.0 / temperature - 1.0 / constants::reference_temperature);
+          alphas[p.alpha1_index] = p.alpha1 + p.alpha1_reciprocal_T * (1.0 / t - 1.0 / constants::reference_temperature);
       }
       p.constant = p.constant_t.at(temperature);
     }
@@ -372,6 +372,7 @@ PitzerModel::PitzerModel(SoluteProperties solutes, const PitzerParameters& param
     PairTerm term{static_cast<std::size_t>(c), static_cast<std::size_t>(a), PairKind::cation_anion};
     term.beta0_t = b.beta0, term.beta1_t = b.beta1, term.beta2_t = b.beta2, term.c_phi_t = b.c_phi, term.c1_t = b.c1;
     term.alpha1 = b.alpha1, term.alpha2 = b.alpha2, term.alpha1_reciprocal_T = b.alpha1_reciprocal_T, term.omega = b.omega;
+    term.minimum_temperature = b.minimum_temperature, term.maximum_temperature = b.maximum_temperature;
     // constant α's are shared between pairs; one that varies with T gets its own slot
     const auto slot = [&](double alpha, bool own) {
       if (!own)

@@ -123,7 +123,8 @@ class ParameterFileReader {
 
   PitzerBinary read_binary(const YAML::Node& node) {
     std::set<std::string> allowed = with_derivatives({"beta0", "beta1", "beta2", "c_phi", "c0", "c1"});
-    allowed.insert({"species", "alpha1", "alpha2", "alpha1_reciprocal_T", "omega", "reference_temperature", "note"});
+    allowed.insert({"species", "alpha1", "alpha2", "alpha1_reciprocal_T", "omega", "reference_temperature",
+                    "minimum_temperature", "maximum_temperature", "note"});
     check_keys(node, allowed);
     const auto names = species(node, 2);
     PitzerBinary b{names[0], names[1], coefficient(node, "beta0"), coefficient(node, "beta1"), coefficient(node, "beta2"),
@@ -140,6 +141,10 @@ class ParameterFileReader {
     if (node["omega"]) b.omega = sourced(node["omega"]);
     if (b.omega <= 0.0) fail(node["omega"], "omega is positive (kg^1/2 mol^-1/2)");
     if (node["alpha1_reciprocal_T"]) b.alpha1_reciprocal_T = sourced(node["alpha1_reciprocal_T"]);
+    if (node["minimum_temperature"]) b.minimum_temperature = sourced(node["minimum_temperature"]);
+    if (node["maximum_temperature"]) b.maximum_temperature = sourced(node["maximum_temperature"]);
+    if (!(b.minimum_temperature < b.maximum_temperature))
+      fail(node, "the pair's minimum_temperature must lie below its maximum_temperature");
     // α by charge type (Pitzer 1991, ch. 3): α₁ = 2 with no β², except 2:2 salts, α₁ = 1.4 and
     // α₂ = 12; an entry may set its own.
     const bool two_two = charge_magnitude(names[0]) >= 2 && charge_magnitude(names[1]) >= 2;

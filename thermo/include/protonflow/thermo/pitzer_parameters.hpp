@@ -34,6 +34,9 @@ struct PitzerBinary {
   double omega = 2.5;                 // ω of the C¹ term, kg^½ mol^-½
   // α₁(T) = alpha1 + alpha1_reciprocal_T (1/T − 1/298.15 K), K (Clegg, Rard & Pitzer 1994, H^+–SO4^2-)
   double alpha1_reciprocal_T = 0.0;
+  // The temperatures the pair's functions were fitted over, K: beyond them every parameter of the
+  // pair is held at its value at the nearer edge (a cubic in T runs away outside its fit).
+  double minimum_temperature = 0.0, maximum_temperature = 1e9;
 };
 
 // An equilibrium constant fitted together with a parameter set: with this model, it replaces the
