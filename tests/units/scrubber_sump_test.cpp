@@ -240,3 +240,27 @@ TEST_CASE("scrubber sump: refusals name the parameter", "[scrubber][sump]") {
   auto small_bleed = scrubber_module().create("scrubber", sump_parameters(0.5, std::nan("")), sump_slate);
   CHECK_THROWS_WITH(run(small_bleed, vent(2e-3), liquor(0.5, 0.0), liquor(0.0, 0.0)), Catch::Matchers::Contains("overflows"));
 }
+
+TEST_CASE("scrubber sump: a scaling salt in the sump's liquor is warned about by its saturation index", "[scrubber][sump]") {
+  // Hard make-up water (calcium as Ca(OH)2) and a vent with CO2, held at pH 9.5 by caustic: calcite
+  // forms in the sump's liquor beyond saturation (log10 Ksp -8.48, Plummer & Busenberg 1982, from
+  // the species data), which the column does not precipitate; the unit says so.
+  const host::Slate hard_slate{{"H2O", "N2", "CO2", "HCl", "NaOH", "Ca(OH)2"}, {}};
+  auto unit = scrubber_module().create("scrubber", sump_parameters(0.5, 9.5), hard_slate);
+  host::StreamState gas = stream(hard_slate, 303.15, atmosphere);
+  flow(gas, hard_slate, PFU_GAS_ROW, "N2") = 1.0;
+  flow(gas, hard_slate, PFU_GAS_ROW, "H2O") = 0.02;
+  flow(gas, hard_slate, PFU_GAS_ROW, "CO2") = 4e-3;
+  flow(gas, hard_slate, PFU_GAS_ROW, "HCl") = 1e-3;
+  host::StreamState make_up = stream(hard_slate, 293.15, atmosphere);
+  flow(make_up, hard_slate, PFU_AQUEOUS_ROW, "H2O") = 0.03 * mol_per_kg_water;
+  flow(make_up, hard_slate, PFU_AQUEOUS_ROW, "Ca(OH)2") = 3e-4;  // 10 mmol/kg
+  host::StreamState reagent = stream(hard_slate, 293.15, atmosphere);
+  flow(reagent, hard_slate, PFU_AQUEOUS_ROW, "H2O") = 0.96 * mol_per_kg_water;
+  flow(reagent, hard_slate, PFU_AQUEOUS_ROW, "NaOH") = 1.0;
+  std::vector<host::StreamState> inlets{gas, make_up, reagent};
+  std::vector<host::StreamState> outlets(2);
+  const host::Solution solution = unit.solve(inlets, outlets);
+  CHECK(warned(solution, "calcite"));
+  CHECK(warned(solution, "saturation index"));
+}

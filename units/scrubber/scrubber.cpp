@@ -163,7 +163,7 @@ ColumnProfile Scrubber::solve_stages(std::size_t stages, const ColumnSpecificati
 
 // Column and sump in turn, each pass the column on the sump's liquor of the last, the sump on the
 // column's spent liquor, to a steady recirculated liquor (docs/units.md, "scrubber", "Sump").
-// Per-component Wegstein steps (Wegstein 1958, bounded as common practice) speed the passes,
+// Per-component Wegstein steps [wegstein-1958], bounded as common practice, speed the passes,
 // which alone converge like the recirculated share of the outflow to a power.
 Scrubber::SumpAnswer Scrubber::solve_with_sump(const ColumnSpecification& specification, ColumnFeeds& feeds,
                                                std::span<const double> reagent, double reagent_temperature) {
