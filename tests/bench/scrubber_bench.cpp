@@ -33,7 +33,7 @@ void scrubber_column(benchmark::State& state) {
   host::StreamState liquor = stream(291.15);
   liquor.flows[PFU_AQUEOUS_ROW * 4 + 0] = 55.5;  // H2O, about 1 kg/s
   liquor.flows[PFU_AQUEOUS_ROW * 4 + 3] = 0.05;  // NaOH
-  const std::vector<host::StreamState> inlets{gas, liquor};
+  const std::vector<host::StreamState> inlets{gas, liquor, stream(291.15)};  // no reagent_in
   std::vector<host::StreamState> outlets(2);
   double iterations = 0.0;
   for (auto _ : state) {

@@ -9,6 +9,7 @@
 #include <protonflow/thermo/equilibrium_solver.hpp>
 #include <protonflow/thermo/stream_enthalpy.hpp>
 
+#include <algorithm>
 #include <cmath>
 #include <string>
 #include <vector>
@@ -32,7 +33,9 @@ struct Column {
 };
 
 Column run(host::Instance& unit, const host::StreamState& gas, const host::StreamState& liquor) {
-  std::vector<host::StreamState> inlets{gas, liquor};
+  host::StreamState no_reagent = liquor;  // reagent_in, unconnected: no flow
+  std::ranges::fill(no_reagent.flows, 0.0);
+  std::vector<host::StreamState> inlets{gas, liquor, no_reagent};
   std::vector<host::StreamState> outlets(2);
   Column c;
   c.solution = unit.solve(inlets, outlets);

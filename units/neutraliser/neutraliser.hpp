@@ -24,7 +24,7 @@
 #include <vector>
 
 #include "liquor_analysis.hpp"
-#include "titration.hpp"
+#include <protonflow/units/titration.hpp>
 
 namespace protonflow::units {
 
