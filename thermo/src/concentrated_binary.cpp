@@ -80,14 +80,15 @@ double mean_molar_mass(const BinaryData& d, double x) {
 }
 
 // Δcp: the solution's specific heat capacity less that of its unmixed components at 298.15 K, J/(kg K),
-// and its slope against mass fraction.
+// and its slope against mass fraction. The water in it is the table's own pure-water value, so that
+// Δcp vanishes at w = 0 whatever water's Cp the table's source used (IAPWS-95 4181.3 J/(kg K) beside
+// the engine's 4183.9): an excess Cp left at infinite dilution would give water a partial heat
+// capacity of its own and a water activity above 1 in dilute solutions away from 25 °C.
 double mixing_heat_capacity(const BinaryData& d, double w) {
-  return d.heat_capacity(w) - (1.0 - w) * liquid_water_heat_capacity(t0) / water_molar_mass -
-         w * d.solute_heat_capacity / solute_molar_mass(d);
+  return d.heat_capacity(w) - (1.0 - w) * d.heat_capacity(0.0) - w * d.solute_heat_capacity / solute_molar_mass(d);
 }
 double mixing_heat_capacity_slope(const BinaryData& d, double w) {
-  return d.heat_capacity.slope(w) + liquid_water_heat_capacity(t0) / water_molar_mass -
-         d.solute_heat_capacity / solute_molar_mass(d);
+  return d.heat_capacity.slope(w) + d.heat_capacity(0.0) - d.solute_heat_capacity / solute_molar_mass(d);
 }
 
 // Enthalpy of mixing at T per kg of solution (Kirchhoff: Δcp does not depend on T here).
@@ -151,9 +152,10 @@ double specific_enthalpy(const BinaryData& d, double temperature, double w) {
   return (1.0 - w) * water + w * solute + mixing_enthalpy_per_kg(d, temperature, w);
 }
 
+// The table's cp(w) with its water carried to T as the engine's liquid water (its pure-water end is
+// then exactly the engine's water at every T, and ∂h/∂T is this, Kirchhoff).
 double heat_capacity(const BinaryData& d, double temperature, double w) {
-  return d.heat_capacity(w) +
-         (1.0 - w) * (liquid_water_heat_capacity(temperature) - liquid_water_heat_capacity(t0)) / water_molar_mass;
+  return d.heat_capacity(w) + (1.0 - w) * (liquid_water_heat_capacity(temperature) / water_molar_mass - d.heat_capacity(0.0));
 }
 
 // Excess volume taken independent of T: each component expands as it does pure.
