@@ -370,3 +370,33 @@ TEST_CASE("concentrated binaries: water activity lies below 1 and falls as the s
           Approx(r.speciation.water_activity).epsilon(5e-4));
   }
 }
+
+TEST_CASE("H2SO4 vapour over the acid: the pure-acid end is Ayers' vapour pressure and the acid's activity obeys Gibbs-Duhem") {
+  const ConcentratedBinary h2so4 = ConcentratedBinary::sulfuric_acid;
+  // Pure H2SO4(l): ln(p/atm) = −10156/T + 16.259 (ayers-gillett-gras-1980, from memory), at its
+  // measured 338–445 K.
+  for (const double t : {340.0, 400.0, 440.0})
+    CHECK(sulfuric_acid_vapour_pressure(t, 1.0) == Approx(std::exp(-10156.0 / t + 16.259) * atmosphere).epsilon(1e-12));
+  // Gibbs–Duhem: x d ln a_s + (1 − x) d ln a_w = 0 at fixed T, by central differences of the two
+  // independently computed activities (p_s / p° and the binary's a_w).
+  for (const double t : {298.15, 423.15}) {
+    for (const double w : {0.625, 0.775, 0.875, 0.925, 0.965}) {  // between the tables' nodes
+      CAPTURE(t, w);
+      const double dw = 2e-3;  // wide enough that the quadrature tolerance (1e-7) is far below the difference
+      const double x = mole_fraction(h2so4, w), dx = mole_fraction(h2so4, w + dw) - mole_fraction(h2so4, w - dw);
+      const double d_ln_acid = std::log(sulfuric_acid_vapour_pressure(t, w + dw) / sulfuric_acid_vapour_pressure(t, w - dw));
+      const double d_ln_water = std::log(binary_properties(h2so4, t, w + dw).water_activity /
+                                         binary_properties(h2so4, t, w - dw).water_activity);
+      CHECK(x * d_ln_acid / dx == Approx(-(1.0 - x) * d_ln_water / dx).epsilon(2e-3));
+    }
+  }
+  // More acid and hotter, more vapour; none without acid.
+  CHECK(sulfuric_acid_vapour_pressure(298.15, 0.0) == 0.0);
+  double previous = 0.0;
+  for (double w = 0.3; w <= 1.0; w += 0.05) {
+    const double p = sulfuric_acid_vapour_pressure(373.15, std::min(w, 1.0));
+    CHECK(p > previous);
+    CHECK(sulfuric_acid_vapour_pressure(423.15, std::min(w, 1.0)) > p);
+    previous = p;
+  }
+}

@@ -29,6 +29,12 @@ constexpr double boiling_margin_warning = 5.0;  // K
 // Acid vapour over the outlet worth a warning: 0.1 Pa is about 1 ppm by volume at 1 atm, the order
 // of the ceiling exposure limits for HCl and HNO3 vapour (common practice; check the local limit).
 constexpr double fume_partial_pressure = 0.1;  // Pa
+// H2SO4 vapour worth an acid-mist warning: the pressure at which a saturated headspace at 25 °C holds
+// 1 mg/m³, the NIOSH recommended exposure limit for sulfuric acid (niosh-pocket-guide, from memory):
+// p = c R T / M = 1e-6 kg/m³ × 8.314 J/(mol K) × 298.15 K / 0.098079 kg/mol.
+constexpr double sulfuric_acid_molar_mass = 0.09807848;  // kg/mol, python3-periodictable
+constexpr double gas_constant = 8.314462618;              // J/(mol K), CODATA 2018
+constexpr double sulfuric_acid_mist_pressure = 1e-6 * gas_constant * 298.15 / sulfuric_acid_molar_mass;  // Pa
 // An inlet of at least 20 % acid or caustic by mass is "concentrated" for the standing caution
 // (common practice).
 constexpr double concentrated_fraction = 0.2;
@@ -338,6 +344,17 @@ void AcidMixer::solve_binary(thermo::ConcentratedBinary binary, std::span<const 
                  " over the outlet liquid (about " + number_text(1e6 * properties.solute_vapour_pressure / pressure, 3) +
                  " ppm by volume at the outlet pressure): corrosive and toxic; enclose and scrub the vent, and check the "
                  "local exposure limit");
+  }
+  if (binary == thermo::ConcentratedBinary::sulfuric_acid && out.liquid_solute_mass_fraction > 0.0) {
+    // H2SO4 vapour over strong hot acid condenses to mist as it cools (concentrated_binary.hpp).
+    const double p_acid = thermo::sulfuric_acid_vapour_pressure(out.temperature, out.liquid_solute_mass_fraction);
+    if (p_acid > sulfuric_acid_mist_pressure) {
+      const double milligram_per_m3 = 1e6 * p_acid * sulfuric_acid_molar_mass / (gas_constant * out.temperature);
+      warnings.add(at + "H2SO4 vapour: " + number_text(p_acid, 3) + " Pa over the outlet liquid (" +
+                   number_text(milligram_per_m3, 3) + " mg/m3 in a saturated headspace, above the 1 mg/m3 exposure "
+                   "limit): it condenses to acid mist as it cools; enclose the vessel and take its vent through a mist "
+                   "eliminator, and check the local exposure limit");
+    }
   }
   if (out.temperature > hot_liquor_temperature) {
     warnings.add(at + "hot corrosive liquor: the product leaves at " + celsius_text(out.temperature) + " with " +
