@@ -482,10 +482,12 @@ std::vector<ReferenceCase> build_cases() {
                      [hydrochloric] { return binary_boiling_celsius(hydrochloric, 0.30); }});
     cases.push_back({binaries, "HCl 36 wt %, boiling point at 1 atm, °C", boiling_read, 61.0, 4.0,
                      [hydrochloric] { return binary_boiling_celsius(hydrochloric, 0.36); },
-                     "HCl 36 wt %: the model's HCl pressure rests on mean activity coefficients at 15 mol/kg recalled "
-                     "from Robinson & Stokes and on Parker's heats; its total pressure at 20 °C is 13 % below the "
-                     "International Critical Tables' and its boiling point 3.3 K low. Published 2 K; widened to 4 K "
-                     "until Fritz & Fuget's or Clegg & Brimblecombe's tables are read."});
+                     "HCl 36 wt %: the cause is the temperature dependence, and it lies in the data. Parker's L_φ "
+                     "gives a differential heat of desorption of 44.5 kJ/mol at 36 % (the model reproduces the slope of "
+                     "his table), while the International Critical Tables' own 20 °C pressure (14.5 kPa) and this "
+                     "61 °C boiling point imply 38.6 kJ/mol; the model scaled to ICT's 20 °C pressure would boil at "
+                     "55.0 °C. A model consistent with the calorimetry cannot meet 2 K here. Published 2 K; held at "
+                     "4 K until Fritz & Fuget's or Clegg & Brimblecombe's tables settle which is right."});
     cases.push_back({binaries, "HCl maximum-boiling azeotrope at 1 atm, wt %", "Wikipedia, Hydrochloric acid (read)",
                      20.2, 1.0, [hydrochloric] { return 100 * binary_azeotrope(hydrochloric, 0.15, 0.25).first; }});
     cases.push_back({binaries, "HCl maximum-boiling azeotrope at 1 atm, °C", "Wikipedia, Hydrochloric acid (read)",
@@ -496,16 +498,20 @@ std::vector<ReferenceCase> build_cases() {
                      "and the one slope of ln γ± beyond 3 mol/kg is chosen to put the azeotrope here."});
     cases.push_back({binaries, "HNO3 maximum-boiling azeotrope at 1 atm, °C", boiling_read, 120.5, 8.0,
                      [nitric] { return binary_azeotrope(nitric, 0.55, 0.70).second; },
-                     "HNO3 azeotrope temperature: with the activity slope fitted to the composition, the model boils "
-                     "7.5 K too high. Published 2 K; widened to 8 K until Clegg & Brimblecombe's (1990) HNO3 "
-                     "parameters are read."});
+                     "HNO3 azeotrope temperature: the cause is the activity beyond 3 mol/kg. There ln γ± continues "
+                     "along one fitted slope (the azeotrope is at 34 mol/kg), which fixes the composition but not the "
+                     "pressures: at 68 wt % and 120.5 °C the water and HNO3 partial pressures come out 24 % and 18 % "
+                     "low (79 kPa in all), which one slope cannot mend (Gibbs-Duhem ties a_w to γ±). Published 2 K; held at 8 K until Clegg & "
+                     "Brimblecombe's (1990) HNO3 parameters or Davis & De Bruin's (1964) activities are read."});
     cases.push_back({binaries, "H2SO4 50 wt %, boiling point at 1 atm, °C", boiling_memory, 124.0, 5.0,
                      [sulfuric] { return binary_boiling_celsius(sulfuric, 0.50); }});
     cases.push_back({binaries, "H2SO4 70 wt %, boiling point at 1 atm, °C", boiling_memory, 167.0, 6.0,
                      [sulfuric] { return binary_boiling_celsius(sulfuric, 0.70); },
                      "H2SO4 70 wt %: the 25 °C water activity (Zeleznik 1991) carried to 160 °C with the NBS heats "
-                     "boils 5.6 K below the recalled 167 °C. Published 5 K (from memory); widened to 6 K until Gmitro "
-                     "& Vermeulen's table is read."});
+                     "boils 5.6 K below the recalled 167 °C. The carry needs L̄_w at n = 2.33 mol H2O per mol, "
+                     "between the n = 2 and 5 heats that are recalled, not read (NBS Circular 500): 1.2 kJ/mol in "
+                     "L̄_w moves this boiling point by about 3.5 K. Published 5 K (from memory); held at 6 K until "
+                     "the NBS n = 2–5 heats or Gmitro & Vermeulen's table are read."});
     // Densities away from 20 °C: only the 20 °C tables enter the models; the temperature dependence
     // is water's own expansion plus the pure acid's (docs/concentrated-acids.md).
     const std::string advancedthermo = "advancedthermo.com electrolyte density tables (read)";
