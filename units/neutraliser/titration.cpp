@@ -48,6 +48,11 @@ void Titration::set_streams(std::span<const double> feed, std::span<const double
   reagent_mass_ = mass_flow(*system_, reagent_);
 }
 
+void Titration::set_streams(std::span<const double> feed, std::span<const double> reagent, double feed_mass) {
+  set_streams(feed, reagent);
+  feed_mass_ = feed_mass;
+}
+
 std::span<const double> Titration::totals_at(double ratio) {
   const double scale = reagent_mass_ > 0.0 ? ratio * feed_mass_ / reagent_mass_ : 0.0;
   for (std::size_t c = 0; c < totals_.size(); ++c) totals_[c] = feed_[c] + scale * reagent_[c];

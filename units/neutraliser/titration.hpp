@@ -29,6 +29,9 @@ class Titration {
 
   // The feed's and the reagent's totals (mol/s per component, all phases) as they enter.
   void set_streams(std::span<const double> feed, std::span<const double> reagent);
+  // The same with the feed's mass (kg/s) as it enters, where its totals were changed before the
+  // equilibrium (aeration adds oxygen): the ratio stays per kg of the feed as it enters.
+  void set_streams(std::span<const double> feed, std::span<const double> reagent, double feed_mass);
   double feed_mass() const noexcept { return feed_mass_; }        // kg/s
   double reagent_mass() const noexcept { return reagent_mass_; }  // kg/s, as it enters
   // The ratio (kg/kg) of the reagent as it enters.
