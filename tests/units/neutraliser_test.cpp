@@ -760,3 +760,39 @@ TEST_CASE("neutraliser: aeration refuses a slate without Fe(III) and a feed with
   CHECK(failed.find("fe2_oxidised_fraction") != std::string::npos);
   CHECK(failed.find("carries no Fe(II)") != std::string::npos);
 }
+
+TEST_CASE("neutraliser: cyanide and hypochlorite wastes acidified release HCN and Cl2, and the unit warns", "[neutraliser]") {
+  SECTION("cyanide: HCN over the liquor at pH 7, none worth warning of at pH 11") {
+    // 1 mmol/kg NaCN (26 mg/L CN). At pH 7 nearly all of it is HCN(aq) (pKa 9.21, izatt-1962), over which Henry's
+    // law (9.02 mol/(kg atm) at 25 °C, ma-2010) puts 1.1e-4 atm = 110 ppm, above the NIOSH short-term limit of
+    // 4.7 ppm (niosh-pocket-guide). At pH 11 HCN is 10^(9.21 - 11) = 1.6 % of it: about 1.8 ppm, below.
+    const host::Slate slate{{"H2O", "NaCN", "HCl", "NaOH"}, {}};
+    const host::StreamState feed = solution(slate, 1.0, {{"NaCN", 1e-3}, {"NaOH", 1e-2}});
+    const host::StreamState acid = solution(slate, 1.0, {{"HCl", 0.1}});
+    const Dose to_7 = run(at_25c({{"mode", std::string("target_ph")}, {"target_ph", 7.0}}), slate, feed, acid);
+    CHECK(warned(to_7.solution, "toxic gas released: hydrogen cyanide"));
+    CHECK(warned(to_7.solution, "mg/kg of water as HCN(aq)"));
+    CHECK(warned(to_7.solution, "NIOSH recommended limit 4.7 ppm"));
+    check_mass_balance(to_7);
+    check_element_balance(to_7);
+    check_energy_and_charge(to_7);
+    const Dose to_11 = run(at_25c({{"mode", std::string("target_ph")}, {"target_ph", 11.0}}), slate, feed, acid);
+    CHECK_FALSE(warned(to_11.solution, "toxic gas released"));
+  }
+  SECTION("hypochlorite: Cl2 over the liquor at pH 3, none at pH 8") {
+    // 1 mmol/kg NaOCl in 10 mmol/kg NaCl. Cl2(aq) = 10^3.34 m(HOCl) a(Cl^-) a(H^+) (thermo/data/chlorine.yaml):
+    // at pH 3 about 2e-5 mol/kg, some 300 ppm of Cl2 over it (Henry 0.061 mol/(kg atm)), above the NIOSH
+    // ceiling of 0.5 ppm; at pH 8 ten million times less.
+    const host::Slate slate{{"H2O", "NaOCl", "NaCl", "HCl", "NaOH"}, {}};
+    const host::StreamState feed = solution(slate, 1.0, {{"NaOCl", 1e-3}, {"NaCl", 0.01}, {"NaOH", 1e-3}});
+    const host::StreamState acid = solution(slate, 1.0, {{"HCl", 0.1}});
+    const Dose to_3 = run(at_25c({{"mode", std::string("target_ph")}, {"target_ph", 3.0}}), slate, feed, acid);
+    CHECK(warned(to_3.solution, "toxic gas released: chlorine"));
+    CHECK(warned(to_3.solution, "NIOSH recommended limit 0.5 ppm"));
+    check_mass_balance(to_3);
+    check_element_balance(to_3);
+    check_energy_and_charge(to_3);
+    const Dose to_8 = run(at_25c({{"mode", std::string("target_ph")}, {"target_ph", 8.0}}), slate, feed, acid);
+    CHECK_FALSE(warned(to_8.solution, "toxic gas released"));
+  }
+}
