@@ -737,6 +737,18 @@ TEST_CASE("neutraliser: aerating ferrous liquor before liming drops dissolved ir
   // The heat of the oxidation, Fe^2+ + 1/4 O2 + H^+ -> Fe^3+ + 1/2 H2O: dfH -48.5 - 285.83/2 + 89.1 = -102.3 kJ/mol
   // (nbs-1982, from memory), shows in the duty at 25 °C: more heat is removed when aerated.
   CHECK(aerated.solution.results[duty] < plain.solution.results[duty]);
+
+  // Adiabatic, the same heat warms the product instead; the energy balance closes with zero duty.
+  const std::vector<ParameterValue> adiabatic{{"mode", std::string("target_ph")}, {"target_ph", 8.5}};
+  std::vector<ParameterValue> aerated_adiabatic = adiabatic;
+  aerated_adiabatic.push_back({"fe2_oxidised_fraction", 1.0});
+  const Dose warm_plain = run(adiabatic, ferrous_slate, pickle_liquor(), lime_slurry());
+  const Dose warm_aerated = run(aerated_adiabatic, ferrous_slate, pickle_liquor(), lime_slurry());
+  INFO("adiabatic outlet " << warm_plain.solution.results[outlet_temperature] << " K, aerated "
+                           << warm_aerated.solution.results[outlet_temperature] << " K");
+  CHECK(warm_aerated.solution.results[outlet_temperature] > warm_plain.solution.results[outlet_temperature]);
+  CHECK(warm_aerated.solution.results[duty] == 0.0);
+  check_energy_and_charge(warm_aerated);
 }
 
 TEST_CASE("neutraliser: aeration refuses a slate without Fe(III) and a feed without Fe(II), naming the parameter",
