@@ -7,6 +7,8 @@
 //   fixed_reagent: s = 1;  target_ph: x such that pH(equilibrium of n(x) at T_out) = pH_set
 //   adiabatic:      H(equilibrium of n(x) at T_out) = H_feed + s H_reagent
 //   at_temperature: T_out = T_set;  duty = H_out − H_feed − s H_reagent
+//   aeration (fe2_oxidised_fraction f > 0): n_feed takes Fe^2+ + 1/4 O2 + H^+ -> Fe^3+ + 1/2 H2O for
+//     f of its Fe(II) before all of the above (ferrous_aeration.hpp); the O2 enters at 25 °C, H = 0
 #pragma once
 
 #include <protonflow/unit_module.hpp>
