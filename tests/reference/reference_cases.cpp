@@ -551,6 +551,28 @@ std::vector<ReferenceCase> build_cases() {
                      "NBS tables, Wagman et al. 1982, integral heats of solution, derived (about)", 550.0, 55.0,
                      [] { return sulfuric_dilution_heat(0.50); }});
   }
+  {
+    // Cyanide (thermo/data/cyanide.yaml): pKa of HCN at 20 and 30 °C as measured, and Henry's law for
+    // HCN at 25 and 35 °C from the published temperature function ln KH = 8205.7/T − 25.323 (M/atm).
+    const std::string cyanide = "cyanide";
+    const std::string izatt = "Izatt et al. 1962, Inorg. Chem. 1, 828 (read in a summary)";
+    const std::string ma = "Ma et al. 2010, Environ. Sci. Technol. 44, 3028 (read)";
+    cases.push_back({cyanide, "pKa of HCN, 20 °C", izatt, 9.36, 0.03, [] { return formation_log_k("HCN(aq)", celsius + 20); }});
+    cases.push_back({cyanide, "pKa of HCN, 30 °C", izatt, 9.11, 0.03, [] { return formation_log_k("HCN(aq)", celsius + 30); }});
+    cases.push_back({cyanide, "pKa of HCN, 25 °C", "Izatt et al. 1962 (from memory)", 9.21, 0.01,
+                     [] { return formation_log_k("HCN(aq)"); }});
+    cases.push_back({cyanide, "HCN at 1e-6 atm over water, 25 °C: m(HCN(aq)) / p, mol kg⁻¹ atm⁻¹", ma, 9.02, 0.02 * 9.02, [] {
+                       const ProbeResult r = solve_open_to({}, "HCN(g)", 1e-6 * 101325.0, ActivityModelKind::ideal);
+                       return r.molality("HCN(aq)") / 1e-6;
+                     }});
+    for (const double t : {25.0, 35.0}) {
+      const double published = std::exp(8205.7 / (celsius + t) - 25.323);
+      cases.push_back({cyanide, fmt::format("HCN Henry's law constant at {:g} °C, mol kg⁻¹ atm⁻¹", t), ma, published,
+                       0.02 * published, [t] {
+                         return std::pow(10.0, formation_log_k("HCN(aq)", celsius + t) - formation_log_k("HCN(g)", celsius + t));
+                       }});
+    }
+  }
   return cases;
 }
 

@@ -949,4 +949,22 @@ TEST_CASE("acid_mixer: 98 % H2SO4 barely diluted gives off H2SO4 vapour and is w
                               liquor(sulfuric, "H2SO4", molar_mass_h2so4, 3.9, 0.0, 298.15)},
                        sulfuric);
   CHECK_FALSE(warned(weak.solution, "H2SO4 vapour"));
+TEST_CASE("acid_mixer: bleach meeting hydrochloric acid releases chlorine, and the mixer warns") {
+  // 0.01 mol/kg NaOCl meeting 0.1 mol/kg HCl: HOCl + Cl^- + H^+ = Cl2(aq) + H2O, log K 3.34 (NBS 1982 free
+  // energies, thermo/data/chlorine.yaml): at pH about 1.4 with 0.1 mol/kg Cl^- most of the hypochlorite is Cl2(aq),
+  // about 5e-3 mol/kg, over which Henry's law (0.061 mol/(kg atm)) puts some 0.08 atm of Cl2, far above the NIOSH
+  // ceiling of 0.5 ppm (niosh-pocket-guide). Bleach alone, at pH 10, gives off none.
+  const host::Slate slate{{"H2O", "NaOCl", "HCl", "NaOH"}, {}};
+  const host::StreamState bleach = solution(slate, 298.15, {{"NaOCl", 0.01}, {"NaOH", 1e-4}});
+  const host::StreamState acid = solution(slate, 298.15, {{"HCl", 0.1}});
+  auto unit = create_mixer({}, slate);
+  const Mix mixed = run(unit, {bleach, acid}, slate);
+  check_mass_balance(mixed, slate);
+  INFO("pH " << mixed.solution.results[outlet_ph]);
+  CHECK(warned(mixed.solution, "toxic gas released: chlorine"));
+  CHECK(warned(mixed.solution, "mg/kg of water as Cl2(aq)"));
+  CHECK(warned(mixed.solution, "NIOSH recommended limit 0.5 ppm"));
+  const Mix alone = run(unit, {bleach}, slate);
+  CHECK(alone.solution.results[outlet_ph] > 9.0);
+  CHECK_FALSE(warned(alone.solution, "toxic gas released"));
 }

@@ -4,6 +4,7 @@
 #include <protonflow/thermo/water_properties.hpp>
 #include <protonflow/units/message_text.hpp>
 #include <protonflow/units/thermo_failure.hpp>
+#include <protonflow/units/toxic_release.hpp>
 
 #include <boost/math/tools/roots.hpp>
 
@@ -426,6 +427,7 @@ void AcidMixer::solve_engine(std::span<const unit::InletState> inlets, double pr
   const double product_enthalpy = product_.enthalpy();
   product.temperature = out.temperature;
   warn_about_product(type, "scaling of the vessel and the lines after it, blocked outlets", *system_, out, inlet_phases_, warnings);
+  warn_about_toxic_release(type, *system_, out, warnings);
   warn_about_model(type, "product", out, warnings);
   placement_.write(product_.totals(), out, product, warnings);
 

@@ -68,6 +68,11 @@ void Titration::name_parameters(std::string target, std::string ratio_max) {
   ratio_max_name_ = std::move(ratio_max);
 }
 
+void Titration::set_streams(std::span<const double> feed, std::span<const double> reagent, double feed_mass) {
+  set_streams(feed, reagent);
+  feed_mass_ = feed_mass;
+}
+
 std::span<const double> Titration::totals_at(double ratio) {
   const double scale = reagent_mass_ > 0.0 ? ratio * feed_mass_ / reagent_mass_ : 0.0;
   const double displaced = displaced_mass_ > 0.0 ? ratio * feed_mass_ / displaced_mass_ : 0.0;

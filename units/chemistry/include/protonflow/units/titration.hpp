@@ -44,6 +44,9 @@ class Titration {
   double displacement_limit() const noexcept;
   // The parameter names the dose search's errors use (default: target_ph, max_reagent_ratio).
   void name_parameters(std::string target, std::string ratio_max);
+  // The same with the feed's mass (kg/s) as it enters, where its totals were changed before the
+  // equilibrium (aeration adds oxygen): the ratio stays per kg of the feed as it enters.
+  void set_streams(std::span<const double> feed, std::span<const double> reagent, double feed_mass);
   double feed_mass() const noexcept { return feed_mass_; }        // kg/s
   double reagent_mass() const noexcept { return reagent_mass_; }  // kg/s, as it enters
   // The ratio (kg/kg) of the reagent as it enters.
