@@ -949,6 +949,8 @@ TEST_CASE("acid_mixer: 98 % H2SO4 barely diluted gives off H2SO4 vapour and is w
                               liquor(sulfuric, "H2SO4", molar_mass_h2so4, 3.9, 0.0, 298.15)},
                        sulfuric);
   CHECK_FALSE(warned(weak.solution, "H2SO4 vapour"));
+}
+
 TEST_CASE("acid_mixer: bleach meeting hydrochloric acid releases chlorine, and the mixer warns") {
   // 0.01 mol/kg NaOCl meeting 0.1 mol/kg HCl: HOCl + Cl^- + H^+ = Cl2(aq) + H2O, log K 3.34 (NBS 1982 free
   // energies, thermo/data/chlorine.yaml): at pH about 1.4 with 0.1 mol/kg Cl^- most of the hypochlorite is Cl2(aq),
