@@ -179,6 +179,8 @@ int EquilibriumSolver::Impl::run_kinsol(int strategy) {
     scale[b] = 1.0 / (natural > 0.0 ? natural : uptake_scale);
   }
   scale[n] = 1.0 / water_total;
+  factored_this_call = false;
+  chord_steps = 0;
   // Solve, then check the flag.
   const int flag = KINSol(kinsol, u, strategy, u_scale, f_scale);
   reuse_factorization = false;  // only ever for the first step of a warm solve

@@ -55,10 +55,9 @@ struct EquilibriumSolver::Impl {
   static void error_callback(int, const char*, const char* function, char* message, void* user_data) {
     static_cast<Impl*>(user_data)->kinsol_message = fmt::format("{}: {}", function, message);
   }
-  static int jacobian_callback(N_Vector u, N_Vector, SUNMatrix jacobian_matrix, void* user_data, N_Vector, N_Vector) {
-    static_cast<Impl*>(user_data)->jacobian(N_VGetArrayPointer(u), jacobian_matrix);
-    return 0;
-  }
+  static int jacobian_callback(N_Vector u, N_Vector fu, SUNMatrix jacobian_matrix, void* user_data, N_Vector, N_Vector);
+  // Whether the next step may keep the LU already held (a chord step) instead of a new Jacobian.
+  bool chord_step(const double* f);
 
   double jacobian_finite_difference_error(double offset);
   void set_totals(std::span<const double> amounts, std::span<const double> open_gas_pressures);
@@ -115,6 +114,10 @@ struct EquilibriumSolver::Impl {
   // The LU in the linear solver: at which T and P its Jacobian was evaluated, and whether the next
   // KINSOL call may start with it (a warm start of the same phase set: docs/equilibrium.md).
   bool factorization_current = false, reuse_factorization = false;
+  // Whether the LU held was made in the current KINSOL call (or kept for its first step), and how
+  // many chord steps have used it since.
+  bool factored_this_call = false;
+  int chord_steps = 0;
   double factored_temperature = -1.0, factored_pressure = -1.0;
   std::vector<char> factored_solid_present;  // the phase set the LU's Jacobian was evaluated for
   bool factored_gas_phase_present = false;
