@@ -119,6 +119,8 @@ void EquilibriumSolver::Impl::residual(const double* x, double* f) {
     }
     f[phase_total_index] = gas_phase_present ? 1.0 - pressure_sum : total;
   }
+  std::copy(f, f + size, latest_residual.begin());
+  std::copy(x, x + size, latest_residual_at.begin());
 }
 
 int EquilibriumSolver::Impl::jacobian_callback(N_Vector u, N_Vector fu, SUNMatrix jm, void* user_data, N_Vector, N_Vector) {
@@ -326,10 +328,15 @@ void EquilibriumSolver::Impl::update_log_k(double t, double p) {
 
 // Scaled max-norm of the residual at the current u, with the charge balance relative to the
 // equivalents of the answer itself.
-double EquilibriumSolver::Impl::scaled_residual_norm() {
+double EquilibriumSolver::Impl::scaled_residual_norm(bool latest_residual_serves) {
   const double* x = N_VGetArrayPointer(u);
   double* f = N_VGetArrayPointer(f_work);
-  residual(x, f);
+  if (latest_residual_serves && std::equal(x, x + size, latest_residual_at.begin())) {
+    std::copy(latest_residual.begin(), latest_residual.end(), f);
+    evaluate_molalities(x);
+  } else {
+    residual(x, f);
+  }
   double charge_scale = 0.0;
   for (std::size_t i = 0; i < n; ++i) charge_scale += 0.5 * std::abs(charge[i]) * molality[i];
   double norm = std::abs(f[0]) / charge_scale;

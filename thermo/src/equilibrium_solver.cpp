@@ -65,6 +65,7 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
       guess_ln_k(n),
       gradient(n),
       basis_amount(nb),
+      ln_basis_activity(nb),
       guess_active(n),
       previous_active(n, 0),
       terms(n) {
@@ -85,6 +86,8 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
   newton_start.assign(size, 0.0);
   before_addition.assign(size, 0.0);
   evaluated_at.assign(size, 0.0);
+  latest_residual.assign(size, 0.0);
+  latest_residual_at.assign(size, std::numeric_limits<double>::quiet_NaN());
   SoluteProperties properties;
   for (std::size_t i = 0; i < n; ++i) {
     const Solute& s = chemical_system.solutes()[i];
@@ -215,10 +218,19 @@ void EquilibriumSolver::Impl::fill(Speciation& out, bool warm) {
   const auto& solids = system->solids();
   out.solid_amount.assign(solids.size(), 0.0);
   out.saturation_index.resize(solids.size());
+  // ln a_b once for every solid's saturation index: the sum of phase_log_activity, term for term.
+  for (std::size_t b = 0; b < nb; ++b) ln_basis_activity[b] = std::log(std::max(molality[b], 1e-300)) + evaluation.ln_gamma[b];
   for (std::size_t p = 0; p < solids.size(); ++p) {
-    const bool in_range = temperature >= solids[p].minimum_temperature && temperature <= solids[p].maximum_temperature;
-    out.saturation_index[p] = solid_active[p] && in_range ? phase_log_activity(solids[p], ln_k_solid[p]) / constants::ln10
-                                                          : std::numeric_limits<double>::quiet_NaN();
+    const PhaseSpecies& solid = solids[p];
+    const bool in_range = temperature >= solid.minimum_temperature && temperature <= solid.maximum_temperature;
+    if (!(solid_active[p] && in_range)) {
+      out.saturation_index[p] = std::numeric_limits<double>::quiet_NaN();
+      continue;
+    }
+    double ln_omega = ln_k_solid[p] + solid.water_coefficient * evaluation.ln_water_activity;
+    for (std::size_t b = 0; b < nb; ++b)
+      if (solid.stoichiometry[b] != 0.0) ln_omega += solid.stoichiometry[b] * ln_basis_activity[b];
+    out.saturation_index[p] = ln_omega / constants::ln10;
   }
   for (std::size_t a = 0; a < allowed.size(); ++a)
     if (solid_present[a]) out.solid_amount[allowed[a]] = solid_scale[a] * x[solid_offset + a];
@@ -238,7 +250,7 @@ void EquilibriumSolver::Impl::fill(Speciation& out, bool warm) {
   long iterations = 0;
   KINGetNumNonlinSolvIters(kinsol, &iterations);
   out.iterations = iterations;
-  out.residual_norm = scaled_residual_norm();
+  out.residual_norm = scaled_residual_norm(true);  // F at the answer is KINSOL's last evaluation
   out.warm_started = warm;
   out.activity_model_limit = activity->maximum_ionic_strength();
   out.activity_model_name = activity->name().data();

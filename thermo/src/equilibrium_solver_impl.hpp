@@ -71,7 +71,9 @@ struct EquilibriumSolver::Impl {
   int run_kinsol(int strategy);
   int run_newton();
   bool accepted(int flag);
-  double scaled_residual_norm();
+  // With latest_residual_serves, the residual last evaluated stands for F at u if it was evaluated
+  // there: only where the equations (totals, phases, T, P) cannot have changed since.
+  double scaled_residual_norm(bool latest_residual_serves = false);
   std::vector<EquationResidual> residual_report();
   void fill(Speciation& out, bool warm);
 
@@ -109,6 +111,7 @@ struct EquilibriumSolver::Impl {
   std::vector<double> shift_by_basis;  // ln of the fraction of each basis species a precipitation leaves
   std::vector<double> guess_x, guess_totals, guess_stoichiometry, guess_ln_k, previous_u, gradient;
   std::vector<double> basis_amount;  // Σ_i ν_ib m_i of each basis species, scratch of the residual
+  std::vector<double> ln_basis_activity;  // ln a_b of each basis species, scratch of fill()
   std::vector<char> guess_active, previous_active;
   bool has_previous = false;
   // The LU in the linear solver: at which T and P its Jacobian was evaluated, and whether the next
@@ -123,6 +126,7 @@ struct EquilibriumSolver::Impl {
   bool factored_gas_phase_present = false;
   int last_flag = 0;
   std::string kinsol_message;
+  std::vector<double> latest_residual, latest_residual_at;  // the last F evaluated, and its u
   std::vector<double> evaluated_at;  // the u of the current molalities and activity evaluation
   bool evaluation_valid = false;
   // Non-zero stoichiometry of each solute, so the Jacobian skips the zeros of a sparse tableau.
