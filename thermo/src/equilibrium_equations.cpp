@@ -287,27 +287,35 @@ void EquilibriumSolver::Impl::set_totals(std::span<const double> amounts, std::s
   proton_total = basis_total[0];
   // A basis species with no total is absent, and so is every solute built from it, unless an open
   // gas supplies it (pure water open to air takes up CO2).
-  const auto available = [&](std::size_t b) {
-    if (basis_total[b] > 0.0) return true;
-    return std::any_of(open.begin(), open.end(), [&](const PhaseSpecies& g) { return g.pivot == b; });
-  };
-  for (std::size_t i = 0; i < n; ++i) {
-    bool present = true;
-    for (std::size_t b = 1; b < nb; ++b)
-      if (stoichiometry[i * nb + b] != 0.0 && !available(b)) present = false;
-    active[i] = present;
+  bool same_basis_available = true;
+  for (std::size_t b = 1; b < nb; ++b) {
+    const char here = basis_total[b] > 0.0 ||
+                      std::any_of(open.begin(), open.end(), [&](const PhaseSpecies& g) { return g.pivot == b; });
+    same_basis_available = same_basis_available && here == basis_available[b];
+    basis_available[b] = here;
   }
-  // A solid can form only from present basis species; s_p is the most of it the limiting total allows.
+  const auto& solids = system->solids();
+  // Which solutes and solids can exist changes only with the set of available basis species (most
+  // calls, a flowsheet's iterations, keep it).
+  if (!same_basis_available) {
+    for (std::size_t i = 0; i < n; ++i) {
+      bool present = true;
+      for (std::size_t b = 1; b < nb; ++b)
+        if (stoichiometry[i * nb + b] != 0.0 && !basis_available[b]) present = false;
+      active[i] = present;
+    }
+    // A solid can form only from present basis species.
+    for (std::size_t p = 0; p < solids.size(); ++p) {
+      bool possible = true;
+      for (std::size_t b = 1; b < nb; ++b)
+        if (solids[p].stoichiometry[b] != 0.0 && !basis_available[b]) possible = false;
+      solid_active[p] = possible;
+    }
+  }
+  // s_p is the most of a solid the limiting total allows.
   uptake_scale = water_total * constants::water_molar_mass;
   phase_scale = water_total;
   for (std::size_t b = 1; b < nb; ++b) phase_scale += std::abs(basis_total[b]);
-  const auto& solids = system->solids();
-  for (std::size_t p = 0; p < solids.size(); ++p) {
-    bool possible = true;
-    for (std::size_t b = 1; b < nb; ++b)
-      if (solids[p].stoichiometry[b] != 0.0 && !available(b)) possible = false;
-    solid_active[p] = possible;
-  }
   for (std::size_t a = 0; a < allowed.size(); ++a) {
     const PhaseSpecies& p = solids[allowed[a]];
     double limit = 1e300;

@@ -52,6 +52,7 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
       ln_k_phase(chemical_system.phase_gases().size()),
       active(n, 1),
       solid_active(chemical_system.solids().size(), 0),
+      basis_available(chemical_system.basis_count(), 2),
       basis_total(nb),
       open_log_pressure(chemical_system.open_gases().size()),
       evaluation(n),

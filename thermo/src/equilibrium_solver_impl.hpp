@@ -88,6 +88,9 @@ struct EquilibriumSolver::Impl {
   std::vector<double> charge, stoichiometry, water_coefficient, ln_k;
   std::vector<double> ln_k_solid, ln_k_open, ln_k_phase;
   std::vector<char> active, solid_active;
+  // Whether each basis species has a total or an open gas to supply it; set_totals rebuilds
+  // `active` and `solid_active` from it when it changes (2 stands for "not yet set").
+  std::vector<char> basis_available;
   // The active set: which allowed solids are present, whether the closed gas phase is; and the sets
   // already tried in this solve (flat, one row of allowed.size() + 1 flags each, capacity reserved).
   std::vector<char> solid_present, previous_solid_present, tried_sets;
