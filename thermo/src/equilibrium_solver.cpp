@@ -175,10 +175,13 @@ int EquilibriumSolver::Impl::run_kinsol(int strategy) {
   scale[0] = 1.0 / std::max(charge_scale, 1e-300);
   // A mass balance is relative to the larger of its total and what the solution holds now: an open
   // gas brings in what the inputs never had (carbonate into water open to air).
+  double* amount = basis_amount.data();  // Σ_i ν_ib m_i over the tableau's non-zero entries
+  std::fill(amount, amount + nb, 0.0);
+  for (std::size_t i = 0; i < n; ++i)
+    for (const Term& t : terms[i]) amount[t.basis] += t.coefficient * molality[i];
   for (std::size_t b = 1; b < nb; ++b) {
     if (!active[b]) continue;
-    double dissolved = 0.0;
-    for (std::size_t i = 0; i < n; ++i) dissolved += stoichiometry[i * nb + b] * molality[i] * water_mass;
+    const double dissolved = amount[b] * water_mass;
     const double natural = std::max(basis_total[b], dissolved);
     scale[b] = 1.0 / (natural > 0.0 ? natural : uptake_scale);
   }
