@@ -119,7 +119,8 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
   check_flag(KINSetFuncNormTol(kinsol, options.tolerance), "KINSetFuncNormTol");
   check_flag(KINSetScaledStepTol(kinsol, 1e-15), "KINSetScaledStepTol");
   check_flag(KINSetNumMaxIters(kinsol, options.max_iterations), "KINSetNumMaxIters");
-  check_flag(KINSetMaxSetupCalls(kinsol, 1), "KINSetMaxSetupCalls");  // exact Newton: a fresh Jacobian each step
+  // KINSOL asks for a Jacobian every step; the callback keeps the LU it holds where a chord step serves.
+  check_flag(KINSetMaxSetupCalls(kinsol, 1), "KINSetMaxSetupCalls");
   check_flag(KINSetMaxNewtonStep(kinsol, 20.0 * std::sqrt(static_cast<double>(size))), "KINSetMaxNewtonStep");
   jacobian_matrix = check_created(detail::make_dense_jacobian(context, length), "make_dense_jacobian");
   linear_solver = check_created(detail::make_dense_lu_solver(context, length), "make_dense_lu_solver");
