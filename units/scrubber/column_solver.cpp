@@ -100,12 +100,10 @@ std::vector<StageResidual> largest_residuals(detail::ColumnEquations& equations,
 
 namespace {
 
-// One solve from a start of `sweeps` sweeps, Newton steps at most `max_step` long.
-ColumnProfile solve_once(detail::ColumnEquations& equations, const ColumnSpecification& specification, int sweeps,
-                         double max_step) {
-  const ColumnProfile start = equations.start_profile(sweeps);
+// One solve from `start`, Newton steps at most `max_step` long.
+ColumnProfile solve_from(detail::ColumnEquations& equations, const ColumnSpecification& specification,
+                         const ColumnProfile& start, double max_step) {
   CallbackData data{&equations, {}};
-
 
   // Set-up: context, vectors, the band matrix (half-bandwidths 2b − 1 for blocks of b unknowns)
   // and its LU solver, the options.
@@ -171,11 +169,20 @@ ColumnProfile solve_once(detail::ColumnEquations& equations, const ColumnSpecifi
 
 }  // namespace
 
-ColumnProfile solve_column(StageModel& model, const ColumnSpecification& specification, const ColumnFeeds& feeds) {
+ColumnProfile solve_column(StageModel& model, const ColumnSpecification& specification, const ColumnFeeds& feeds,
+                           const ColumnProfile* previous) {
   detail::ColumnEquations equations(model, specification, feeds);
+  // A previous answer of the same column (the last pass of a recycle) is a better start than any
+  // sweep: Newton from it, and from a cold start only if that fails.
+  if (previous != nullptr && equations.can_start_from(*previous)) {
+    try {
+      return solve_from(equations, specification, *previous, attempts[0].max_step);
+    } catch (const ColumnConvergenceError&) {
+    }
+  }
   for (std::size_t a = 0;; ++a) {
     try {
-      return solve_once(equations, specification, attempts[a].sweeps, attempts[a].max_step);
+      return solve_from(equations, specification, equations.start_profile(attempts[a].sweeps), attempts[a].max_step);
     } catch (const ColumnConvergenceError&) {
       if (a + 1 == std::size(attempts)) throw;
     }

@@ -11,6 +11,7 @@
 #include <protonflow/units/stream_chemistry.hpp>
 
 #include <array>
+#include <map>
 #include <memory>
 #include <span>
 #include <vector>
@@ -124,6 +125,7 @@ class Scrubber {
   std::size_t oxygen_gas_;          // column gas O2, or StageModel::no_component
   ColumnChemistry chemistry_;       // owns the liquid system the stage model points at: must not move
   std::unique_ptr<ChemistryStageModel> model_;
+  std::map<std::size_t, ColumnProfile> previous_profiles_;  // the last answer at each stage count solved
 };
 
 }  // namespace protonflow::scrubber
