@@ -150,7 +150,12 @@ ColumnProfile Scrubber::solve_stages(std::size_t stages, const ColumnSpecificati
   specification.stages = stages;
   model_->prepare(stages);
   try {
-    return solve_column(*model_, specification, feeds);
+    // Each stage count starts from its own last answer: in a recycle the feeds change little from
+    // one pass to the next (docs/units.md, "Solution").
+    const auto previous = previous_profiles_.find(stages);
+    ColumnProfile profile = solve_column(*model_, specification, feeds, previous == previous_profiles_.end() ? nullptr : &previous->second);
+    previous_profiles_[stages] = profile;
+    return profile;
   } catch (const ColumnConvergenceError& error) {
     std::string message = std::string("unit 'scrubber': ") + error.what();
     for (const StageResidual& r : error.residuals())

@@ -11,6 +11,7 @@
 #include <protonflow/units/stream_chemistry.hpp>
 
 #include <array>
+#include <map>
 #include <memory>
 #include <span>
 #include <vector>
@@ -167,6 +168,7 @@ class Scrubber {
   ColumnChemistry chemistry_;       // owns the liquid system the stage model points at: must not move
   std::unique_ptr<ChemistryStageModel> model_;
   std::unique_ptr<Sump> sump_;      // with recirculation only
+  std::map<std::size_t, ColumnProfile> previous_profiles_;  // the last answer at each stage count solved
 };
 
 }  // namespace protonflow::scrubber
