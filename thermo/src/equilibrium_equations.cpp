@@ -257,10 +257,11 @@ void EquilibriumSolver::Impl::set_totals(std::span<const double> amounts, std::s
   // H^+ is balanced by charge; its tableau total is kept for the cold start.
   proton_total = basis_total[0];
   // A basis species with no total is absent, and so is every solute built from it, unless an open
-  // gas supplies it (pure water open to air takes up CO2).
+  // gas supplies it (pure water open to air takes up CO2). A gas supplies every basis species of its
+  // formation reaction, not only its pivot: Cl2(g) brings both Cl^- and HOCl(aq).
   const auto available = [&](std::size_t b) {
     if (basis_total[b] > 0.0) return true;
-    return std::any_of(open.begin(), open.end(), [&](const PhaseSpecies& g) { return g.pivot == b; });
+    return std::any_of(open.begin(), open.end(), [&](const PhaseSpecies& g) { return g.stoichiometry[b] != 0.0; });
   };
   for (std::size_t i = 0; i < n; ++i) {
     bool present = true;
@@ -318,7 +319,7 @@ std::vector<EquationResidual> EquilibriumSolver::Impl::residual_report() {
   const auto& solutes = system->solutes();
   report.push_back({"charge balance", f[0] * scale[0]});
   for (std::size_t b = 1; b < nb; ++b) report.push_back({"mass balance " + solutes[b].name, f[b] * scale[b]});
-  for (std::size_t i = nb; i < n; ++i) report.push_back({"mass action " + solutes[i].name, f[i]});
+  for (std::size_t i = nb; i < n; ++i) report.push_back({"mass action " + solutes[i].name, f[i] * scale[i]});
   report.push_back({"water balance", f[n] * scale[n]});
   for (std::size_t a = 0; a < allowed.size(); ++a)
     report.push_back({"saturation " + system->solids()[allowed[a]].name, f[solid_offset + a]});
