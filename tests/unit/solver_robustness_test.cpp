@@ -235,3 +235,21 @@ TEST_CASE("limed aluminium and zinc sulfate near 0 °C converges with the Keggin
   CHECK(s.solid_amount[solid_index(system, "gypsum")] > 0.0);
   check_answer(system, amounts, s);
 }
+
+// Once a case of the brine property test: with halite, thenardite and brucite present, mirabilite
+// comes in and Newton fails (the hydrate and its anhydrous salt are both saturated only at one water
+// activity). Its rival is thenardite, which shares both its basis species; halite, first in the list
+// and sharing only Na^+, was removed instead, and the sets cycled.
+TEST_CASE("a cold 8.4 mol/kg NaCl brine with sodium sulfate settles on halite and one sodium sulfate") {
+  SystemOptions options;
+  options.activity = ActivityModelKind::pitzer;
+  const ChemicalSystem system = with_every_solid({"H2O", "NaCl", "MgSO4", "Na2SO4", "Ca(OH)2"}, options);
+  EquilibriumSolver solver(system);
+  const std::vector<double> amounts{kilogram_of_water, 8.3631999999999991, 0.00027289777828080403, 0.9727472237769651,
+                                    0.0019230917289101575};
+  const double t = system.minimum_temperature() + 0.0767 * (system.maximum_temperature() - system.minimum_temperature());
+  const Speciation s = solver.solve(t, constants::standard_atmosphere, amounts);
+  CHECK(s.solid_amount[solid_index(system, "halite")] > 0.0);
+  CHECK((s.solid_amount[solid_index(system, "thenardite")] > 0.0) != (s.solid_amount[solid_index(system, "mirabilite")] > 0.0));
+  check_answer(system, amounts, s);
+}

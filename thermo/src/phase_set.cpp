@@ -118,19 +118,28 @@ bool EquilibriumSolver::Impl::settle_phases() {
 bool EquilibriumSolver::Impl::replace_rival(std::size_t added) {
   const auto& solids = system->solids();
   const PhaseSpecies& newcomer = solids[allowed[added]];
-  for (std::size_t rival = 0; rival < allowed.size(); ++rival) {
-    if (rival == added || !solid_present[rival]) continue;
-    bool shares = false;
+  // The rivals that share the most basis species with the newcomer first: a hydrate and its
+  // anhydrous form (mirabilite, thenardite) share all of theirs, halite only Na^+ with them.
+  const auto shared_with = [&](std::size_t rival) {
+    std::size_t shared = 0;
     for (std::size_t b = 1; b < nb; ++b)
-      shares = shares || (newcomer.stoichiometry[b] != 0.0 && solids[allowed[rival]].stoichiometry[b] != 0.0);
-    if (!shares) continue;
-    solid_present[rival] = 0;
-    double* x = N_VGetArrayPointer(u);
-    std::copy(before_addition.begin(), before_addition.end(), x);
-    x[solid_offset + rival] = 0.0;
-    predict_precipitation(added);
-    if (solve_current_set()) return true;
-    solid_present[rival] = 1;
+      shared += newcomer.stoichiometry[b] != 0.0 && solids[allowed[rival]].stoichiometry[b] != 0.0 ? 1 : 0;
+    return shared;
+  };
+  std::size_t most_shared = 0;
+  for (std::size_t rival = 0; rival < allowed.size(); ++rival)
+    if (rival != added && solid_present[rival]) most_shared = std::max(most_shared, shared_with(rival));
+  for (std::size_t count = most_shared; count > 0; --count) {
+    for (std::size_t rival = 0; rival < allowed.size(); ++rival) {
+      if (rival == added || !solid_present[rival] || shared_with(rival) != count) continue;
+      solid_present[rival] = 0;
+      double* x = N_VGetArrayPointer(u);
+      std::copy(before_addition.begin(), before_addition.end(), x);
+      x[solid_offset + rival] = 0.0;
+      predict_precipitation(added);
+      if (solve_current_set()) return true;
+      solid_present[rival] = 1;
+    }
   }
   // The gas phase is a rival too where one of its gases shares a basis species with the newcomer:
   // halite out of a strong brine lowers the ionic strength, and with it the activities that raised
