@@ -286,11 +286,12 @@ void EquilibriumSolver::Impl::set_totals(std::span<const double> amounts, std::s
   // H^+ is balanced by charge; its tableau total is kept for the cold start.
   proton_total = basis_total[0];
   // A basis species with no total is absent, and so is every solute built from it, unless an open
-  // gas supplies it (pure water open to air takes up CO2).
+  // gas supplies it (pure water open to air takes up CO2). A gas supplies every basis species of its
+  // formation reaction, not only its pivot: Cl2(g) brings both Cl^- and HOCl(aq).
   bool same_basis_available = true;
   for (std::size_t b = 1; b < nb; ++b) {
     const char here = basis_total[b] > 0.0 ||
-                      std::any_of(open.begin(), open.end(), [&](const PhaseSpecies& g) { return g.pivot == b; });
+                      std::any_of(open.begin(), open.end(), [&](const PhaseSpecies& g) { return g.stoichiometry[b] != 0.0; });
     same_basis_available = same_basis_available && here == basis_available[b];
     basis_available[b] = here;
   }
@@ -360,7 +361,7 @@ std::vector<EquationResidual> EquilibriumSolver::Impl::residual_report() {
   const auto& solutes = system->solutes();
   report.push_back({"charge balance", f[0] * scale[0]});
   for (std::size_t b = 1; b < nb; ++b) report.push_back({"mass balance " + solutes[b].name, f[b] * scale[b]});
-  for (std::size_t i = nb; i < n; ++i) report.push_back({"mass action " + solutes[i].name, f[i]});
+  for (std::size_t i = nb; i < n; ++i) report.push_back({"mass action " + solutes[i].name, f[i] * scale[i]});
   report.push_back({"water balance", f[n] * scale[n]});
   for (std::size_t a = 0; a < allowed.size(); ++a)
     report.push_back({"saturation " + system->solids()[allowed[a]].name, f[solid_offset + a]});

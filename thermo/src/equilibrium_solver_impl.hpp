@@ -69,6 +69,7 @@ struct EquilibriumSolver::Impl {
   bool solve_current_set();
   bool replace_rival(std::size_t added);
   int run_kinsol(int strategy);
+  void scale_mass_action_rows(const double* u, double* scale) const;
   int run_newton();
   bool accepted(int flag);
   // With latest_residual_serves, the residual last evaluated stands for F at u if it was evaluated
@@ -92,7 +93,8 @@ struct EquilibriumSolver::Impl {
   // `active` and `solid_active` from it when it changes (2 stands for "not yet set").
   std::vector<char> basis_available;
   // The active set: which allowed solids are present, whether the closed gas phase is; and the sets
-  // already tried in this solve (flat, one row of allowed.size() + 1 flags each, capacity reserved).
+  // already tried in this solve (flat, one row of allowed.size() + 2 flags each: the phases and the
+  // outcome of their Newton solve; capacity reserved).
   std::vector<char> solid_present, previous_solid_present, tried_sets;
   bool gas_phase_present = false, previous_gas_phase_present = false;
   std::size_t maximum_rounds = 0;
