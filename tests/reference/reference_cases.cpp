@@ -376,6 +376,8 @@ std::vector<ReferenceCase> build_cases() {
            {"log *Ks strengite + 3 H^+ = Fe^3+ + H3PO4(aq) + 2 H2O", "Iuliano, Ciavatta & De Tommaso 2007, SSSAJ 71 (read, abstract)", -6.70,
             [] { return formation_log_k("H3PO4(aq)") - formation_log_k("strengite"); }},
            {"log Ksp hannebachite CaSO3·½H2O", "Lange's Handbook, Ksp 3.1e-7 (from memory)", -6.51, log_ks("hannebachite")},
+           {"log *Kps0 smithsonite + 2 H^+ = Zn^2+ + CO2(g) + H2O", "Preis, Königsberger & Gamsjäger 2000, J. Solution Chem. 29 (read, abstract)", 7.25,
+            [] { return formation_log_k("CO2(g)") - formation_log_k("smithsonite"); }},
            // Per Ca10(PO4)6(OH)2 = 10 Ca^2+ + 6 PO4^3- + 2 OH^-: twice the data's Ca5 unit.
            {"−log Ksp hydroxyapatite Ca10(PO4)6(OH)2", "Dorozhkin 2010, Materials 3, table 3 (read)", 116.8,
             [] { return 2.0 * (formation_log_k("hydroxyapatite") - formation_log_k("OH^-")); }},
