@@ -147,6 +147,12 @@ BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_davies, ActivityModelKind::
 BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_davies, ActivityModelKind::davies, true)->Iterations(1010);
 BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_b_dot, ActivityModelKind::b_dot, true)->Iterations(10);
 BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_b_dot, ActivityModelKind::b_dot, true)->Iterations(1010);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, pitzer, ActivityModelKind::pitzer, false)->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_pitzer, ActivityModelKind::pitzer, true)->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, pitzer, ActivityModelKind::pitzer, false)->Iterations(10);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, pitzer, ActivityModelKind::pitzer, false)->Iterations(1010);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_pitzer, ActivityModelKind::pitzer, true)->Iterations(10);
+BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_pitzer, ActivityModelKind::pitzer, true)->Iterations(1010);
 
 // Cold solving through the drawn cases.
 void speciation_cold(benchmark::State& state) {

@@ -1,6 +1,6 @@
 // The demo pickling plant of docs/performance.md, "Demo plant": host-demo/examples/flowsheets/
-// pickling-plant.yaml (acid mixer, neutraliser to a target pH, six-stage scrubber, two splitters,
-// two recycles) solved from a cold start — a fresh session, set-up included, every unit cold — in
+// pickling-plant.yaml (acid mixer, neutraliser to a target pH, six-stage scrubber with its sump, a splitter,
+// one recycle) solved from a cold start — a fresh session, set-up included, every unit cold — in
 // the process; solved again in a session whose units are warm; and as `protonflow run` end to end.
 // Measures only; nothing here asserts on time.
 #include <benchmark/benchmark.h>

@@ -101,6 +101,10 @@ TEST_CASE("the recycle solver finds the fixed point of a linear loop, faster wit
   CHECK(slow.iterations > 100);
   // The history of substitution shrinks by about the spectral radius per pass.
   CHECK(slow.history[200].largest_relative_change < slow.history[100].largest_relative_change);
+  // Both stop at the first pass that meets the tolerance, not passes later.
+  for (const RecycleOutcome* outcome : {&fast, &slow}) {
+    for (std::size_t i = 0; i + 1 < outcome->history.size(); ++i) CHECK(outcome->history[i].largest_relative_change > 1e-12);
+  }
 }
 
 TEST_CASE("a recycle that cannot converge in its iterations reports its history") {

@@ -75,7 +75,9 @@ TEST_CASE("run doses the demo acid waste to pH 9 with lime, and the tank balance
   REQUIRE(points.size() == 101);
   CHECK(points.front().first == 0.0);
   CHECK(points.back().first == Approx(2.0 * value(results, "reagent_ratio")).epsilon(1e-12));
-  for (std::size_t i = 1; i < points.size(); ++i) CHECK(points[i].second >= points[i - 1].second);
+  // Rising, or flat where a solid buffers the pH (portlandite at 12.39): on a plateau successive
+  // answers differ by the solver's precision (scaled residual 1e-13, about 1e-11 in pH), either way.
+  for (std::size_t i = 1; i < points.size(); ++i) CHECK(points[i].second >= points[i - 1].second - 1e-9);
   CHECK(points[50].second == Approx(9.0).margin(0.01));  // the midpoint is the dose, at the outlet temperature
   // Every component of treated + vent = acid_waste + s lime_slurry, s the dose over the slurry's flow.
   const double slurry_kg_per_s = results["streams"]["lime_slurry"]["mass_flow_kg_per_s"].as<double>();

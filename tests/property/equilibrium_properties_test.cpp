@@ -36,6 +36,7 @@ struct Case {
 };
 
 std::ostream& operator<<(std::ostream& os, const Case& c) {
+  os.precision(17);  // enough digits to reproduce a failing case exactly
   os << "T at " << c.temperature_fraction << " of the range, model " << static_cast<int>(c.model) << ":";
   for (const auto& [component, m] : c.recipe) os << " " << component << "=" << m;
   return os;
@@ -393,6 +394,52 @@ TEST_CASE("random brines to I = 6 mol/kg with the Pitzer model converge, balance
         scale += std::abs(s.speciation.molality[i] * at.d_ln_gamma_d_molality[i * n + k]);
       }
       RC_ASSERT(std::abs(sum) <= 1e-12 * scale);
+    }
+  });
+}
+
+namespace {
+
+// Brines up to and past halite saturation (about 6.1 mol/kg NaCl at 25 °C): sodium chloride with
+// the other chlorides, sulfate and a little acid or base, every solid they reach allowed.
+rc::Gen<Case> random_saturating_brine() {
+  return rc::gen::resize(100, rc::gen::apply(
+      [](int t, int model, int salt, std::vector<int> picks, std::vector<int> weights) {
+        static const std::vector<std::string> others{"KCl", "CaCl2", "MgCl2", "Na2SO4", "MgSO4", "HCl", "NaOH", "Ca(OH)2"};
+        static const std::vector<ActivityModelKind> models{ActivityModelKind::pitzer, ActivityModelKind::davies,
+                                                           ActivityModelKind::b_dot, ActivityModelKind::ideal};
+        // NaCl from 1 to 9 mol/kg, uniform: a third of the cases past saturation.
+        Case c{t / 10000.0, models[static_cast<std::size_t>(model)], {{"NaCl", 1.0 + 8.0 * salt / 10000.0}}};
+        for (std::size_t i = 0; i < picks.size(); ++i) {
+          const std::string& name = others[static_cast<std::size_t>(picks[i])];
+          if (std::any_of(c.recipe.begin(), c.recipe.end(), [&](const auto& r) { return r.first == name; })) continue;
+          c.recipe.emplace_back(name, std::pow(10.0, -4.0 + 4.0 * weights[i] / 1000.0));  // 1e-4 … 1 mol/kg
+        }
+        return c;
+      },
+      rc::gen::inRange(0, 10001), rc::gen::inRange(0, 4), rc::gen::inRange(0, 10001),
+      rc::gen::container<std::vector<int>>(3, rc::gen::inRange(0, 8)),
+      rc::gen::container<std::vector<int>>(3, rc::gen::inRange(0, 1001))));
+}
+
+}  // namespace
+
+TEST_CASE("random brines up to and past halite saturation converge or fail with a typed error, balances to round-off") {
+  rc::prop("converged with closed balances and complementary solids, or a ConvergenceError with its residuals", [] {
+    const Case c = *random_saturating_brine();
+    RC_TAG(c.model == ActivityModelKind::pitzer ? "pitzer" : c.model == ActivityModelKind::davies ? "davies"
+           : c.model == ActivityModelKind::b_dot ? "b-dot" : "ideal");
+    try {
+      const Solved s = solve_with_solids(c);
+      std::size_t halite = 0;
+      while (s.system.solids()[halite].name != "halite") ++halite;
+      RC_CLASSIFY(s.speciation.solid_amount[halite] > 0.0, "halite precipitated");
+      assert_balances_close(s);
+      assert_solids_complementary(s);
+    } catch (const ConvergenceError& e) {
+      RC_ASSERT(e.kind() == ErrorKind::not_converged);
+      RC_ASSERT(!e.residuals().empty());
+      RC_TAG("typed error");
     }
   });
 }

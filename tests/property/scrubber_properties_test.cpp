@@ -48,7 +48,10 @@ std::optional<double> hcl_out(const Case& c, int stages, double liquor_factor) {
   liquor.pressure = atmosphere;
   liquor.flows[PFU_AQUEOUS_ROW * 4 + h2o] = liquor_factor * c.water / 0.018015268;  // M(H2O), IAPWS-95
   liquor.flows[PFU_AQUEOUS_ROW * 4 + naoh] = liquor_factor * c.water * c.naoh_molality;
-  const std::vector<host::StreamState> inlets{gas, liquor};
+  host::StreamState no_reagent = host::empty_stream(slate);  // reagent_in, unconnected
+  no_reagent.temperature = c.liquor_temperature;
+  no_reagent.pressure = atmosphere;
+  const std::vector<host::StreamState> inlets{gas, liquor, no_reagent};
   std::vector<host::StreamState> outlets(2);
   try {
     (void)unit.solve(inlets, outlets);

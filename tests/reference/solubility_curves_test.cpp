@@ -99,8 +99,9 @@ TEST_CASE("fresh Zn(OH)2, Ni(OH)2, Al(OH)3, Fe(OH)3 and Cr(OH)3: minimum positio
       {"ZnSO4", 2.0, "Zn(OH)2(am)", 12.45, 2, {0.0, -8.96, -17.82, -28.05, -40.41}},
       // Baes & Mesmer 1976 (hydrolysis); NBS 1982 free energy of Ni(OH)2 (fresh solid); from memory.
       {"NiSO4", 2.0, "Ni(OH)2(fresh)", 12.73, 2, {0.0, -9.86, -19.0, -30.0}},
-      // Brown & Ekberg 2016 (hydrolysis, dimer and trimer); Nordstrom et al. 1990 (Al(OH)3(am) 10.8).
-      {"AlCl3", 3.0, "Al(OH)3(am)", 10.8, 3, {0.0, -4.98, -10.63, -15.66, -22.91}, {{2, 2, -7.62}, {3, 4, -14.06}}},
+      // Brown & Ekberg 2016 (hydrolysis, dimer, trimer and Al13O4(OH)24^7+); Nordstrom et al. 1990 (Al(OH)3(am) 10.8).
+      {"AlCl3", 3.0, "Al(OH)3(am)", 10.8, 3, {0.0, -4.98, -10.63, -15.66, -22.91},
+       {{2, 2, -7.62}, {3, 4, -14.06}, {13, 32, -100.03}}},
       // Nordstrom et al. 1990: ferrihydrite 4.891 and the Fe(III) hydrolysis constants, dimer and trimer.
       {"FeCl3", 3.0, "ferrihydrite", 4.891, 3, {0.0, -2.19, -5.67, -12.56, -21.6}, {{2, 2, -2.95}, {3, 4, -6.3}}},
       // Rai, Sass & Moore 1987, Inorg. Chem. 26, 345 (from memory; no Cr(OH)2^+ in their model).

@@ -39,7 +39,9 @@ PitzerParameters every_term() {
   PitzerParameters p;
   p.binary.push_back({"Na^+", "Cl^-", {0.08, 1e-3, 0}, {0.27, 1e-3, 0}, {}, {0.0013, -1e-4, 0}});
   p.binary.push_back({"Ca^2+", "SO4^2-", {0.2, 0, 0}, {3.2, 0, 0}, {-54, 0, 0}, {}, 1.4, 12.0});
-  p.binary.push_back({"H^+", "SO4^2-", {0.03, 0, 0}, {}, {}, {0.044, 0, 0}});
+  // Archer's C¹ term and an α₁ that varies with T, as Clegg, Rard & Pitzer (1994) give for H^+–SO4^2-
+  p.binary.push_back({"H^+", "SO4^2-", {0.03, 0, 0}, {0.31, 2e-3, 0}, {}, {0.044, 0, 0}, 2.0, 0.0, {-0.32, 1e-3, 0}, 2.5,
+                      -1842.843});
   p.theta.push_back({"Na^+", "Ca^2+", {0.07, 0, 0}});
   p.psi.push_back({"Na^+", "Ca^2+", "Cl^-", {-0.007, 0, 0}});
   p.lambda.push_back({"CO2(aq)", "Na^+", {0.1, 0, 0}});
@@ -147,6 +149,49 @@ TEST_CASE("Pitzer relative partial molal enthalpies are the derivatives of the r
   CHECK(euler == Approx(model.relative_enthalpy(310.0, 1e5, m)).epsilon(1e-10));
 }
 
+TEST_CASE("Pitzer C1 term: the osmotic coefficient takes Archer's form C0 + C1 exp(-omega sqrt I)") {
+  // Archer (1992): with C^T = C⁰ + 4C¹ h(ω√I) in the excess Gibbs energy, the osmotic coefficient of
+  // a 1:1 salt gains 2m² (C⁰ + C¹ e^−ω√I) (Pitzer 1991, eq. 3.60 with Z = 2m): checked at low and
+  // high I (the series and the closed form of h), against the same model without the term.
+  SoluteProperties p;
+  p.charge = {1, -1};
+  p.ion_size_angstrom = {9, 4};
+  p.name = {"H^+", "HSO4^-"};
+  PitzerParameters bare, with_c;
+  bare.binary.push_back({"H^+", "HSO4^-", {0.2, 0, 0}, {0.4, 0, 0}, {}, {}});
+  with_c.binary.push_back({"H^+", "HSO4^-", {0.2, 0, 0}, {0.4, 0, 0}, {}, {-0.006, 0, 0}, 2.0, 0.0, {-0.41, 0, 0}, 2.5});
+  const PitzerModel without(p, bare), with(p, with_c);
+  for (const double m : {1e-3, 0.05, 0.3, 2.0, 6.0}) {
+    ActivityEvaluation a(2), b(2);
+    const std::vector<double> molality{m, m};
+    with.evaluate(298.15, 1e5, molality, a);
+    without.evaluate(298.15, 1e5, molality, b);
+    const auto phi = [&](const ActivityEvaluation& e) { return -e.ln_water_activity / (constants::water_molar_mass * 2 * m); };
+    const double c_phi = -0.006 / 2 + -0.41 * std::exp(-2.5 * std::sqrt(m));  // C⁰ = Cφ/2 for 1:1
+    INFO("m = " << m);
+    CHECK(phi(a) - phi(b) == Approx(2 * m * m * c_phi).epsilon(1e-8));
+  }
+}
+
+TEST_CASE("Pitzer parameters are held at the edge of their fitted temperature range") {
+  // Beyond maximum_temperature a pair's parameters keep their values there: a model whose β⁰(T) has
+  // a slope but stops at 310 K equals, at 350 K, a model holding β⁰(310 K) as a constant.
+  SoluteProperties p;
+  p.charge = {1, -1};
+  p.ion_size_angstrom = {9, 4};
+  p.name = {"H^+", "HSO4^-"};
+  PitzerParameters sloped, held;
+  sloped.binary.push_back({"H^+", "HSO4^-", {0.2, 5e-3, 1e-4}, {0.4, 0, 0}, {}, {}, 2.0, 0.0, {-0.4, 2e-3, 0}, 2.5, -1000.0});
+  sloped.binary.back().maximum_temperature = 310.0;
+  const double dt = 310.0 - 298.15;
+  held.binary.push_back({"H^+", "HSO4^-", {0.2 + 5e-3 * dt + 0.5e-4 * dt * dt, 0, 0}, {0.4, 0, 0}, {}, {}, 2.0 - 1000.0 * (1 / 310.0 - 1 / 298.15),
+                         0.0, {-0.4 + 2e-3 * dt, 0, 0}, 2.5});
+  const PitzerModel a(p, sloped), b(p, held);
+  const std::vector<double> m{2.0, 2.0};
+  CHECK(a.excess_gibbs_energy(350.0, 1e5, m) == Approx(b.excess_gibbs_energy(350.0, 1e5, m)).epsilon(1e-12));
+  CHECK(a.excess_gibbs_energy(305.0, 1e5, m) != Approx(b.excess_gibbs_energy(305.0, 1e5, m)).epsilon(1e-6));
+}
+
 TEST_CASE("Pitzer model names the species it has no parameters for") {
   SoluteProperties p;
   p.charge = {1, -1, 1, 0};
@@ -216,6 +261,11 @@ TEST_CASE("the Pitzer parameter file: bundled set read, bad entries refused with
   const PitzerParameters& bundled = bundled_pitzer_parameters();
   CHECK(bundled.binary.size() >= 30);
   CHECK(bundled.maximum_ionic_strength == 6.0);
+  // The HSO4^- constant fitted with the sulfuric-acid parameters: K2 = 0.010500 at 25 °C, log10 K2 = −1.97882
+  // (Clegg, Rard & Pitzer 1994, eq. 21), held as the formation constant of HSO4^- in the five-term form.
+  REQUIRE(bundled.equilibrium_constants.size() == 1);
+  CHECK(bundled.equilibrium_constants[0].species == "HSO4^-");
+  CHECK(log_k(bundled.equilibrium_constants[0].log_k, 298.15, 101325.0) == Approx(1.97882).margin(1e-4));
   const auto directory = std::filesystem::temp_directory_path() / "protonflow-pitzer-parameters";
   std::filesystem::create_directories(directory);
   const auto refused = [&](const std::string& name, const std::string& text, int line, int column, const std::string& what) {
@@ -239,5 +289,14 @@ TEST_CASE("the Pitzer parameter file: bundled set read, bad entries refused with
           3, 5, "theta of K^+ Na^+ is listed twice");
   refused("lambda-ion-first", "lambda:\n  - {species: [Na^+, CO2(aq)], lambda: {value: 1, source: x}}\n", 2, 15, "a neutral species first");
   refused("psi-signs", "psi:\n  - {species: [Na^+, Cl^-, K^+], psi: {value: 1, source: x}}\n", 2, 15, "two different ions of one sign");
+  refused("c0-and-c_phi",
+          "binary:\n  - species: [H^+, HSO4^-]\n    beta0: {value: 0.2, source: x}\n    c_phi: {value: 0.01, source: x}\n"
+          "    c0: {value: 0.005, source: x}\n",
+          5, 9, "either c_phi or c0");
+  refused("constant-without-reaction", "equilibrium_constants:\n  - species: HSO4^-\n    five_term_log10_K: {constant: 2, source: x}\n",
+          2, 5, "needs 'reaction'");
+  refused("constant-without-source",
+          "equilibrium_constants:\n  - species: HSO4^-\n    reaction: {H^+: 1, SO4^2-: 1}\n    five_term_log10_K: {constant: 2}\n", 2, 5,
+          "with its 'source'");
   std::filesystem::remove_all(directory);
 }

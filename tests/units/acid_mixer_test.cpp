@@ -867,3 +867,106 @@ TEST_CASE("acid_mixer: random let-downs of the four binaries balance, stay above
     RC_ASSERT(m.product.temperature >= std::min(t_liquor, t_water) - 1e-9);
   });
 }
+
+TEST_CASE("acid_mixer: a binary inlet above its own bubble point is warned of, naming it, its bubble point and the margin") {
+  const host::Slate hydrochloric{{"H2O", "HCl"}, {}};
+  constexpr double molar_mass_hcl = 0.03646;  // kg/mol, python3-periodictable (36.46 g/mol)
+  auto unit = create_mixer({}, hydrochloric);
+  // 37 % HCl boils near 52 °C at 1 atm (36 % at 61 °C, 38 % at 48 °C: International Critical Tables
+  // in the Wikipedia table, REFERENCE-VALUES.md): at 60 °C it is no liquid at 1 atm.
+  const double bubble = thermo::bubble_temperature(thermo::ConcentratedBinary::hydrochloric_acid, 0.37, atmosphere);
+  REQUIRE(bubble < 333.15);
+  const Mix hot = run(unit, {liquor(hydrochloric, "HCl", molar_mass_hcl, 9.0, 0.0, 298.15),
+                             liquor(hydrochloric, "HCl", molar_mass_hcl, 1.0, 0.37, 333.15)},
+                      hydrochloric);
+  CHECK(warned(hot.solution, "inlet 2 of 'feed' (37 wt % HCl-water) enters at 60 °C, above its bubble point"));
+  CHECK(warned(hot.solution, "K: no such liquid exists there"));
+  CHECK_FALSE(warned(hot.solution, "inlet 1 of 'feed'"));
+  check_mass_balance(hot, hydrochloric);
+  // At 25 °C, or at 60 °C under 3 bar, the same acid is a liquid: no such warning.
+  const Mix cool = run(unit, {liquor(hydrochloric, "HCl", molar_mass_hcl, 9.0, 0.0, 298.15),
+                              liquor(hydrochloric, "HCl", molar_mass_hcl, 1.0, 0.37, 298.15)},
+                       hydrochloric);
+  CHECK_FALSE(warned(cool.solution, "bubble point"));
+  host::StreamState pressed = liquor(hydrochloric, "HCl", molar_mass_hcl, 1.0, 0.37, 333.15);
+  pressed.pressure = 3e5;
+  const Mix under_pressure = run(unit, {liquor(hydrochloric, "HCl", molar_mass_hcl, 9.0, 0.0, 298.15), pressed}, hydrochloric);
+  CHECK_FALSE(warned(under_pressure.solution, "above its bubble point"));
+  // The same acid entering the ionic engine's side (with a salt solution) is warned of the same way.
+  const host::Slate salty{{"H2O", "HCl", "NaCl"}, {}};
+  auto engine = create_mixer({}, salty);
+  const Mix mixed = run(engine, {solution(salty, 298.15, {{"NaCl", 0.1}}), liquor(salty, "HCl", molar_mass_hcl, 0.05, 0.37, 333.15)},
+                        salty);
+  CHECK(mixed.solution.results[model] == 2.0);
+  CHECK(warned(mixed.solution, "inlet 2 of 'feed' (37 wt % HCl-water) enters at 60 °C, above its bubble point"));
+}
+
+TEST_CASE("acid_mixer: a mixture the ionic engine answers has a density from the ions' partial molar volumes") {
+  // 1 mol/kg HCl with a trace of NaCl (so that the engine, not the binary model, answers), held at
+  // 25 and 85 °C: advancedthermo-densities (read) give 1.01420 and 0.98626 g/cm³ for 1 mol/kg HCl;
+  // water plus V°(H^+) + V°(Cl^-) = 17.83 cm³/mol (millero-1972, from memory) is 0.11 % and 0.06 % high.
+  const host::Slate slate{{"H2O", "HCl", "NaCl"}, {}};
+  for (const auto& [t, published] : {std::pair{298.15, 1014.20}, std::pair{358.15, 986.26}}) {
+    auto unit = create_mixer({{"mode", std::string("held_temperature")}, {"outlet_temperature", t}}, slate);
+    const Mix m = run(unit, {solution(slate, 298.15, {{"HCl", 1.0}, {"NaCl", 1e-6}})}, slate);
+    REQUIRE(m.solution.results[model] == 2.0);
+    CHECK(m.solution.results[density] == Approx(published).epsilon(0.002));
+    CHECK(m.solution.results[volumetric_flow] == Approx(m.solution.results[mass_flow] / m.solution.results[density]).epsilon(1e-9));
+  }
+  // NaOH + HCl neutralised (the engine answers): a finite density near 0.1 mol/kg NaCl's, never NaN.
+  const host::Slate neutral{{"H2O", "HCl", "NaOH"}, {}};
+  auto unit = create_mixer({}, neutral);
+  const Mix m = run(unit, {solution(neutral, 298.15, {{"HCl", 0.2}}), solution(neutral, 298.15, {{"NaOH", 0.2}})}, neutral);
+  REQUIRE(m.solution.results[model] == 2.0);
+  // About 0.1 mol/kg NaCl: 2 kg/s of water and the 0.2 mol/s of water the neutralisation makes, with
+  // V°(Na^+) + V°(Cl^-) = 16.62 cm³/mol (millero-1972, from memory) and water's density at the outlet
+  // temperature from python3-iapws (IAPWS-95), within 2e-4 (ion pairs the data may form count at
+  // water's density).
+  CHECK(std::isfinite(m.solution.results[density]));
+  const std::vector<double> rho = run_python("from iapws import IAPWS95\nprint(repr(IAPWS95(T=" +
+                                             std::to_string(m.product.temperature) + ", P=0.101325).rho))\n");
+  REQUIRE(rho.size() == 1);
+  const double water_kg = 2.0 + 0.2 * 0.0180153, salt_mol = 0.2;
+  const double liquid_kg = water_kg + salt_mol * (0.02298977 + 0.035453);  // python3-periodictable
+  CHECK(m.solution.results[density] == Approx(liquid_kg / (water_kg / rho[0] + salt_mol * 16.62e-6)).epsilon(2e-4));
+  CHECK_FALSE(warned(m.solution, "partial molar volume"));
+}
+
+TEST_CASE("acid_mixer: 98 % H2SO4 barely diluted gives off H2SO4 vapour and is warned of; diluted to 20 % it is not") {
+  // The warning's threshold: 1 mg/m³ in a saturated headspace, the NIOSH exposure limit for sulfuric
+  // acid (niosh-pocket-guide, from memory). 1 kg/s of 98 % acid with 0.1 kg/s of water ends near 89 %
+  // and, adiabatically, far above 100 °C: its H2SO4 vapour (Ayers et al. 1980 with the binary's own
+  // activity) is several Pa.
+  auto unit = create_mixer({}, sulfuric);
+  const Mix strong = run(unit, {liquor(sulfuric, "H2SO4", molar_mass_h2so4, 1.0, 0.98, 298.15),
+                                liquor(sulfuric, "H2SO4", molar_mass_h2so4, 0.1, 0.0, 298.15)},
+                         sulfuric);
+  CHECK(strong.solution.results[model] == 1.0);
+  CHECK(strong.product.temperature > 373.15);
+  CHECK(warned(strong.solution, "H2SO4 vapour"));
+  check_mass_balance(strong, sulfuric);
+  const Mix weak = run(unit, {liquor(sulfuric, "H2SO4", molar_mass_h2so4, 1.0, 0.98, 298.15),
+                              liquor(sulfuric, "H2SO4", molar_mass_h2so4, 3.9, 0.0, 298.15)},
+                       sulfuric);
+  CHECK_FALSE(warned(weak.solution, "H2SO4 vapour"));
+}
+
+TEST_CASE("acid_mixer: bleach meeting hydrochloric acid releases chlorine, and the mixer warns") {
+  // 0.01 mol/kg NaOCl meeting 0.1 mol/kg HCl: HOCl + Cl^- + H^+ = Cl2(aq) + H2O, log K 3.34 (NBS 1982 free
+  // energies, thermo/data/chlorine.yaml): at pH about 1.4 with 0.1 mol/kg Cl^- most of the hypochlorite is Cl2(aq),
+  // about 5e-3 mol/kg, over which Henry's law (0.061 mol/(kg atm)) puts some 0.08 atm of Cl2, far above the NIOSH
+  // ceiling of 0.5 ppm (niosh-pocket-guide). Bleach alone, at pH 10, gives off none.
+  const host::Slate slate{{"H2O", "NaOCl", "HCl", "NaOH"}, {}};
+  const host::StreamState bleach = solution(slate, 298.15, {{"NaOCl", 0.01}, {"NaOH", 1e-4}});
+  const host::StreamState acid = solution(slate, 298.15, {{"HCl", 0.1}});
+  auto unit = create_mixer({}, slate);
+  const Mix mixed = run(unit, {bleach, acid}, slate);
+  check_mass_balance(mixed, slate);
+  INFO("pH " << mixed.solution.results[outlet_ph]);
+  CHECK(warned(mixed.solution, "toxic gas released: chlorine"));
+  CHECK(warned(mixed.solution, "mg/kg of water as Cl2(aq)"));
+  CHECK(warned(mixed.solution, "NIOSH recommended limit 0.5 ppm"));
+  const Mix alone = run(unit, {bleach}, slate);
+  CHECK(alone.solution.results[outlet_ph] > 9.0);
+  CHECK_FALSE(warned(alone.solution, "toxic gas released"));
+}

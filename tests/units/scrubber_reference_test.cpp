@@ -58,7 +58,7 @@ TEST_CASE("scrubber: SO2 into excess caustic on one stage, against a hand calcul
   host::StreamState liquor = stream(slate, 298.15, atmosphere);
   flow(liquor, slate, PFU_AQUEOUS_ROW, "H2O") = mol_per_kg_water;
   flow(liquor, slate, PFU_AQUEOUS_ROW, "NaOH") = 0.1;
-  const std::vector<host::StreamState> inlets{gas, liquor};
+  const std::vector<host::StreamState> inlets{gas, liquor, stream(slate, 298.15, atmosphere)};  // no reagent_in
   std::vector<host::StreamState> outlets(2);
   const host::Solution solution = unit.solve(inlets, outlets);
   CHECK(result(unit, solution, "removal_so2") == Approx(1.0).margin(1e-9));          // hand calculation above
@@ -99,7 +99,7 @@ TEST_CASE("scrubber: dry nitrogen leaves at the adiabatic-saturation temperature
   flow(gas, slate, PFU_GAS_ROW, "N2") = 1.0;
   host::StreamState liquor = stream(slate, t_as, atmosphere);
   flow(liquor, slate, PFU_AQUEOUS_ROW, "H2O") = mol_per_kg_water;
-  const std::vector<host::StreamState> inlets{gas, liquor};
+  const std::vector<host::StreamState> inlets{gas, liquor, stream(slate, 298.15, atmosphere)};  // no reagent_in
   std::vector<host::StreamState> outlets(2);
   const host::Solution solution = unit.solve(inlets, outlets);
   // IAPWS-95 through python3-iapws: T_as to 0.05 K (the model's latent heat comes from NBS
@@ -123,7 +123,7 @@ TEST_CASE("scrubber: outlet concentrations corrected to a reference oxygen conte
     flow(gas, slate, PFU_GAS_ROW, "HCl") = 1e-3;
     host::StreamState liquor = stream(slate, 298.15, atmosphere);
     flow(liquor, slate, PFU_AQUEOUS_ROW, "H2O") = 0.2 * mol_per_kg_water;
-    const std::vector<host::StreamState> inlets{gas, liquor};
+    const std::vector<host::StreamState> inlets{gas, liquor, stream(slate, 298.15, atmosphere)};  // no reagent_in
     std::vector<host::StreamState> outlets(2);
     const host::Solution solution = unit.solve(inlets, outlets);
     gas_out = outlets[0];

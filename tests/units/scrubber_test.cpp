@@ -9,6 +9,7 @@
 #include <protonflow/thermo/equilibrium_solver.hpp>
 #include <protonflow/thermo/stream_enthalpy.hpp>
 
+#include <algorithm>
 #include <cmath>
 #include <string>
 #include <vector>
@@ -32,7 +33,9 @@ struct Column {
 };
 
 Column run(host::Instance& unit, const host::StreamState& gas, const host::StreamState& liquor) {
-  std::vector<host::StreamState> inlets{gas, liquor};
+  host::StreamState no_reagent = liquor;  // reagent_in, unconnected: no flow
+  std::ranges::fill(no_reagent.flows, 0.0);
+  std::vector<host::StreamState> inlets{gas, liquor, no_reagent};
   std::vector<host::StreamState> outlets(2);
   Column c;
   c.solution = unit.solve(inlets, outlets);
@@ -206,4 +209,25 @@ TEST_CASE("scrubber: refusals name what is wrong", "[scrubber]") {
   CHECK_THAT(refusal({{"limit_gas", std::string("hcl")}}, caustic_slate), Catch::Matchers::Contains("needs emission_limit"));
   // Sodium only as the carbonate, with CO2 also on the slate: no component carries Na alone.
   CHECK_THAT(refusal({}, host::Slate{{"H2O", "CO2", "HCl", "Na2CO3"}, {}}), Catch::Matchers::Contains("alone"));
+}
+
+TEST_CASE("scrubber: a column started from its previous answer finds the cold column's answer", "[scrubber]") {
+  // The instance keeps its last profile and starts Newton from it (docs/units.md, "Warm start"):
+  // the answer at the new feeds must be the one a fresh instance finds from its cold start, to
+  // the column's tolerance, and the warm solve must have started from that profile (fewer
+  // Newton iterations than the cold one, which needs six or more here).
+  const auto parameters = std::vector<ParameterValue>{{"stages", 8.0}, {"efficiency", 0.7}};
+  auto warm = scrubber_module().create("scrubber", parameters, caustic_slate);
+  (void)run(warm, vent_gas(1e-3), caustic(1.0, 0.05));
+  const Column again = run(warm, vent_gas(1.05e-3), caustic(1.02, 0.05));
+  auto cold = scrubber_module().create("scrubber", parameters, caustic_slate);
+  const Column fresh = run(cold, vent_gas(1.05e-3), caustic(1.02, 0.05));
+  CHECK(result(warm, again, "newton_iterations") < result(cold, fresh, "newton_iterations"));
+  for (std::size_t i = 0; i < fresh.gas_out.flows.size(); ++i) {
+    CAPTURE(i);
+    CHECK(again.gas_out.flows[i] == Approx(fresh.gas_out.flows[i]).epsilon(1e-8).margin(1e-25));
+    CHECK(again.liquor_out.flows[i] == Approx(fresh.liquor_out.flows[i]).epsilon(1e-8).margin(1e-25));
+  }
+  CHECK(again.liquor_out.temperature == Approx(fresh.liquor_out.temperature).margin(1e-6));
+  CHECK(result(warm, again, "outlet_hcl_ppmv") == Approx(result(cold, fresh, "outlet_hcl_ppmv")).epsilon(1e-7));
 }

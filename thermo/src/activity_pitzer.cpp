@@ -64,6 +64,36 @@ Curve pitzer_g_of_ionic_strength(double alpha, double ionic_strength) {
           (g.second * x * x - g.first * x) / (4.0 * ionic_strength * ionic_strength)};
 }
 
+// Archer's (1992) h(x) = [6 − (6 + 6x + 3x² + x³) e^−x]/x⁴ of the C¹ term and its first two
+// derivatives; h = Σ_k (−1)^k x^k / (k! (k + 4)) below x = 1, where the closed form cancels.
+Curve archer_h(double x) {
+  if (x < 1.0) {
+    Curve c;
+    double term = 1.0;  // (−1)^k x^k / k!
+    for (int k = 0; k < 30; ++k) {
+      c.value += term / (k + 4);
+      if (k >= 1) c.first += term * k / (x * (k + 4));
+      if (k >= 2) c.second += term * k * (k - 1) / (x * x * (k + 4));
+      term *= -x / (k + 1);
+    }
+    return c;
+  }
+  // N = 6 − (6 + 6x + 3x² + x³) e^−x, N' = x³ e^−x, N'' = (3x² − x³) e^−x
+  const double e = std::exp(-x);
+  const double n0 = 6.0 - (6.0 + x * (6.0 + x * (3.0 + x))) * e;
+  const double n1 = x * x * x * e, n2 = (3.0 - x) * x * x * e;
+  const double x4 = x * x * x * x;
+  return {n0 / x4, n1 / x4 - 4.0 * n0 / (x4 * x), n2 / x4 - 8.0 * n1 / (x4 * x) + 20.0 * n0 / (x4 * x * x)};
+}
+
+// h(ω√I) as a function of I, with the same chain rule as g(α√I).
+Curve archer_h_of_ionic_strength(double omega, double ionic_strength) {
+  const double x = omega * std::sqrt(ionic_strength);
+  const Curve h = archer_h(x);
+  return {h.value, h.first * x / (2.0 * ionic_strength),
+          (h.second * x * x - h.first * x) / (4.0 * ionic_strength * ionic_strength)};
+}
+
 // J(x) of the unsymmetrical mixing terms, Pitzer (1975), J. Solution Chem. 4, 249, eq. 47:
 // J = x / (4 + C1 x^−C2 exp(−C3 x^C4)), C1 = 4.581, C2 = 0.7237, C3 = 0.0120, C4 = 0.528 (from
 // memory); with its first two derivatives in x.
@@ -105,12 +135,13 @@ struct PairTerm {
   std::size_t i, j;
   PairKind kind;
   // the parameters as functions of T, copied so that the model outlives the parameter set it was built from
-  PitzerCoefficient beta0_t{}, beta1_t{}, beta2_t{}, c_phi_t{};  // cation–anion pairs
-  double alpha1 = 2.0, alpha2 = 0.0;
+  PitzerCoefficient beta0_t{}, beta1_t{}, beta2_t{}, c_phi_t{}, c1_t{};  // cation–anion pairs
+  double alpha1 = 2.0, alpha2 = 0.0, alpha1_reciprocal_T = 0.0, omega = 2.5;
+  double minimum_temperature = 0.0, maximum_temperature = 1e9;  // K, the fit's range: held at its edges
   std::size_t alpha1_index = 0, alpha2_index = 0;  // into Impl::alphas
   PitzerCoefficient constant_t{};  // θ or λ (zero for a pair with Eθ alone)
-  // the same at the cached temperature; c = Cφ/(2√|z_c z_a|)
-  double beta0 = 0, beta1 = 0, beta2 = 0, c = 0, constant = 0;
+  // the same at the cached temperature; c = C⁰ = Cφ/(2√|z_c z_a|), c1 = C¹
+  double beta0 = 0, beta1 = 0, beta2 = 0, c = 0, c1 = 0, constant = 0;
 };
 
 struct TripleTerm {
@@ -133,14 +164,17 @@ struct PitzerModel::Impl {
   mutable double cached_temperature = -1.0;
   mutable double a_phi = 0.0;
   mutable std::vector<Curve> pair_curves;
+  mutable std::vector<double> third_virial;  // C^T(I) of each cation–anion pair at the last evaluation
   // the α of every binary pair, each g(α√I) computed once per evaluation
-  std::vector<double> alphas;
+  // (an α that varies with T has a slot of its own, set with the temperature)
+  mutable std::vector<double> alphas;
   mutable std::vector<Curve> alpha_curves;
   // J(x) of each charge product, computed at most once per evaluation
   mutable std::array<Curve, largest_memo_charge_product + 1> j_curves{};
   mutable std::array<bool, largest_memo_charge_product + 1> j_known{};
   mutable std::vector<double> r;        // R_k = Σ_{pairs ∋ k} m_other P'
-  mutable std::vector<double> d_q;      // ∂Q/∂m_k
+  mutable std::vector<double> d_q;      // ∂Q/∂m_k at constant I
+  mutable std::vector<double> d_q1;     // ∂Q'/∂m_k at constant I (Q' = ∂Q/∂I, from the C¹ terms)
   mutable std::vector<double> gradient;  // ln γ
 
   void set_temperature(double temperature, double pressure) const {
@@ -149,12 +183,15 @@ struct PitzerModel::Impl {
     a_phi = debye_huckel_parameters(temperature, pressure).a * constants::ln10 / 3.0;
     for (PairTerm& p : pairs) {
       if (p.kind == PairKind::cation_anion) {
-        p.beta0 = p.beta0_t.at(temperature);
-        p.beta1 = p.beta1_t.at(temperature);
-        p.beta2 = p.beta2_t.at(temperature);
+        const double t = std::clamp(temperature, p.minimum_temperature, p.maximum_temperature);
+        p.beta0 = p.beta0_t.at(t);
+        p.beta1 = p.beta1_t.at(t);
+        p.beta2 = p.beta2_t.at(t);
         // C = Cφ / (2 √|z_c z_a|) (Pitzer 1991, eq. 3.63)
-        p.c = p.c_phi_t.at(temperature) /
-              (2.0 * std::sqrt(std::abs(static_cast<double>(solutes.charge[p.i] * solutes.charge[p.j]))));
+        p.c = p.c_phi_t.at(t) / (2.0 * std::sqrt(std::abs(static_cast<double>(solutes.charge[p.i] * solutes.charge[p.j]))));
+        p.c1 = p.c1_t.at(t);
+        if (p.alpha1_reciprocal_T != 0.0)
+          alphas[p.alpha1_index] = p.alpha1 + p.alpha1_reciprocal_T * (1.0 / t - 1.0 / constants::reference_temperature);
       }
       p.constant = p.constant_t.at(temperature);
     }
@@ -224,7 +261,9 @@ struct PitzerModel::Impl {
     std::fill(gradient.begin(), gradient.end(), 0.0);
     std::fill(r.begin(), r.end(), 0.0);
     std::fill(d_q.begin(), d_q.end(), 0.0);
-    double g = f, s1 = 0.0, s2 = 0.0, q = 0.0;
+    std::fill(d_q1.begin(), d_q1.end(), 0.0);
+    // Q(I) = Σ_ca m_c m_a C^T_ca(I), C^T = C⁰ + 4C¹ h(ω√I) (Archer 1992); q1, q2 its I-derivatives
+    double g = f, s1 = 0.0, s2 = 0.0, q = 0.0, q1 = 0.0, q2 = 0.0;
     for (std::size_t a = 0; a < alphas.size(); ++a) alpha_curves[a] = pitzer_g_of_ionic_strength(alphas[a], i);
     j_known.fill(false);
     for (std::size_t p = 0; p < pairs.size(); ++p) {
@@ -244,10 +283,20 @@ struct PitzerModel::Impl {
         r[term.i] += mj * c.first;
         r[term.j] += mi * c.first;
       }
-      if (term.kind == PairKind::cation_anion && term.c != 0.0) {
-        q += mi * mj * term.c;
-        d_q[term.i] += mj * term.c;
-        d_q[term.j] += mi * term.c;
+      if (term.kind == PairKind::cation_anion && (term.c != 0.0 || term.c1 != 0.0)) {
+        Curve c{term.c, 0.0, 0.0};
+        if (term.c1 != 0.0) {
+          const Curve h = archer_h_of_ionic_strength(term.omega, i);
+          c.value += 4.0 * term.c1 * h.value, c.first = 4.0 * term.c1 * h.first, c.second = 4.0 * term.c1 * h.second;
+        }
+        third_virial[p] = c.value;
+        q += mi * mj * c.value, q1 += mi * mj * c.first, q2 += mi * mj * c.second;
+        d_q[term.i] += mj * c.value;
+        d_q[term.j] += mi * c.value;
+        d_q1[term.i] += mj * c.first;
+        d_q1[term.j] += mi * c.first;
+      } else {
+        third_virial[p] = 0.0;
       }
     }
     for (const TripleTerm& t : triples) {
@@ -259,20 +308,23 @@ struct PitzerModel::Impl {
     g += z_sum * q;
     for (std::size_t k = 0; k < n; ++k) {
       const double z = solutes.charge[k];
-      gradient[k] += 0.5 * z * z * (f1 + s1) + std::abs(z) * q + z_sum * d_q[k];
+      gradient[k] += 0.5 * z * z * (f1 + s1 + z_sum * q1) + std::abs(z) * q + z_sum * d_q[k];
     }
     if (!hessian) return g;
 
-    // ∂²g/∂m_k∂m_l = ¼z_k²z_l²(f'' + S2) + ½z_k² R_l + ½z_l² R_k + (direct pair and triple terms)
-    //               + |z_k| ∂Q/∂m_l + |z_l| ∂Q/∂m_k + Z ∂²Q/∂m_k∂m_l
+    // ∂²g/∂m_k∂m_l = ¼z_k²z_l²(f'' + S2 + Z Q'') + ½z_k² R_l + ½z_l² R_k + (direct pair and triple terms)
+    //               + |z_k| dQ/dm_l + |z_l| dQ/dm_k + Z (½z_l² ∂Q'/∂m_k + ½z_k² ∂Q'/∂m_l + ∂²Q/∂m_k∂m_l),
+    // with dQ/dm = ∂Q/∂m + ½z² Q' the total derivative through I
     for (std::size_t k = 0; k < n; ++k) {
       const double half_zk2 = 0.5 * solutes.charge[k] * solutes.charge[k];
       const double abs_zk = std::abs(solutes.charge[k]);
       double* row = hessian + k * n;
       for (std::size_t l = 0; l < n; ++l) {
         const double half_zl2 = 0.5 * solutes.charge[l] * solutes.charge[l];
-        row[l] = half_zk2 * half_zl2 * (f2 + s2) + half_zk2 * r[l] + half_zl2 * r[k] + abs_zk * d_q[l] +
-                 std::abs(solutes.charge[l]) * d_q[k];
+        const double abs_zl = std::abs(solutes.charge[l]);
+        row[l] = half_zk2 * half_zl2 * (f2 + s2 + z_sum * q2) + half_zk2 * r[l] + half_zl2 * r[k] +
+                 abs_zk * (d_q[l] + half_zl2 * q1) + abs_zl * (d_q[k] + half_zk2 * q1) +
+                 z_sum * (half_zl2 * d_q1[k] + half_zk2 * d_q1[l]);
       }
     }
     for (std::size_t p = 0; p < pairs.size(); ++p) {
@@ -282,7 +334,7 @@ struct PitzerModel::Impl {
         hessian[term.i * n + term.i] += 2.0 * value;
       } else {
         double cross = value;
-        if (term.kind == PairKind::cation_anion) cross += z_sum * term.c;
+        if (term.kind == PairKind::cation_anion) cross += z_sum * third_virial[p];
         hessian[term.i * n + term.j] += cross;
         hessian[term.j * n + term.i] += cross;
       }
@@ -313,17 +365,25 @@ PitzerModel::PitzerModel(SoluteProperties solutes, const PitzerParameters& param
     return it == index.end() ? -1 : static_cast<std::ptrdiff_t>(it->second);
   };
   std::vector<bool> covered(n, false);
+  std::vector<bool> shared_alpha;  // per slot of d.alphas: false for a temperature-dependent α
   for (const PitzerBinary& b : parameters.binary) {
     const auto c = find(b.cation), a = find(b.anion);
     if (c < 0 || a < 0) continue;
     PairTerm term{static_cast<std::size_t>(c), static_cast<std::size_t>(a), PairKind::cation_anion};
-    term.beta0_t = b.beta0, term.beta1_t = b.beta1, term.beta2_t = b.beta2, term.c_phi_t = b.c_phi;
-    term.alpha1 = b.alpha1, term.alpha2 = b.alpha2;
-    for (const double alpha : {b.alpha1, b.alpha2}) {
-      if (std::find(d.alphas.begin(), d.alphas.end(), alpha) == d.alphas.end()) d.alphas.push_back(alpha);
-    }
-    term.alpha1_index = static_cast<std::size_t>(std::find(d.alphas.begin(), d.alphas.end(), b.alpha1) - d.alphas.begin());
-    term.alpha2_index = static_cast<std::size_t>(std::find(d.alphas.begin(), d.alphas.end(), b.alpha2) - d.alphas.begin());
+    term.beta0_t = b.beta0, term.beta1_t = b.beta1, term.beta2_t = b.beta2, term.c_phi_t = b.c_phi, term.c1_t = b.c1;
+    term.alpha1 = b.alpha1, term.alpha2 = b.alpha2, term.alpha1_reciprocal_T = b.alpha1_reciprocal_T, term.omega = b.omega;
+    term.minimum_temperature = b.minimum_temperature, term.maximum_temperature = b.maximum_temperature;
+    // constant α's are shared between pairs; one that varies with T gets its own slot
+    const auto slot = [&](double alpha, bool own) {
+      if (!own)
+        for (std::size_t a = 0; a < d.alphas.size(); ++a)
+          if (shared_alpha[a] && d.alphas[a] == alpha) return a;
+      d.alphas.push_back(alpha);
+      shared_alpha.push_back(!own);
+      return d.alphas.size() - 1;
+    };
+    term.alpha1_index = slot(b.alpha1, b.alpha1_reciprocal_T != 0.0);
+    term.alpha2_index = slot(b.alpha2, false);
     d.pairs.push_back(term);
     covered[static_cast<std::size_t>(c)] = covered[static_cast<std::size_t>(a)] = true;
   }
@@ -359,9 +419,11 @@ PitzerModel::PitzerModel(SoluteProperties solutes, const PitzerParameters& param
   for (std::size_t k = 0; k < n; ++k)
     if (!covered[k]) d.without_parameters.push_back(solutes.name[k]);
   d.pair_curves.resize(d.pairs.size());
+  d.third_virial.resize(d.pairs.size());
   d.alpha_curves.resize(d.alphas.size());
   d.r.resize(n);
   d.d_q.resize(n);
+  d.d_q1.resize(n);
   d.gradient.resize(n);
   d.solutes = std::move(solutes);
 }

@@ -43,8 +43,10 @@ SmoothTable heat_of_solution_table() {
   return {x, h};
 }
 
+// One column of the isotherm against mass fraction, or its logarithm against mole fraction; at_zero
+// is the pure-water value of the column itself (its logarithm is taken like every other value's).
 SmoothTable column(double Isotherm::*field, double at_zero, bool as_log_of_mole_fraction) {
-  std::vector<double> x{0.0}, y{at_zero};
+  std::vector<double> x{0.0}, y{as_log_of_mole_fraction ? std::log(at_zero) : at_zero};
   for (const Isotherm& p : olsson) {
     x.push_back(as_log_of_mole_fraction ? mole_fraction(p.mass_fraction) : p.mass_fraction);
     y.push_back(as_log_of_mole_fraction ? std::log(p.*field) : p.*field);

@@ -58,6 +58,22 @@ ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string
       }
     }
   };
+  // A constant fitted with the Pitzer parameters (pK of HSO4^- of Clegg, Rard & Pitzer 1994) replaces
+  // the species data's under that model: the parameters mean something only with their own constant.
+  const auto pitzer_log_k = [](const Species& s) {
+    for (const PitzerEquilibriumConstant& k : bundled_pitzer_parameters().equilibrium_constants) {
+      if (k.species != s.name) continue;
+      auto data = s.reaction, fitted = k.reaction;
+      std::sort(data.begin(), data.end());
+      std::sort(fitted.begin(), fitted.end());
+      if (data != fitted)
+        throw DataError(default_pitzer_parameters_file().string(), 0, 0,
+                        fmt::format("the equilibrium constant of '{}' is for another reaction than the species data's",
+                                    s.name));
+      return k.log_k;
+    }
+    return s.log_k;
+  };
   const auto add_solute = [&](const Species& s) {
     Solute solute;
     solute.name = s.name;
@@ -72,6 +88,7 @@ ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string
     } else {
       spread_reaction(s, solute.stoichiometry, solute.water_coefficient);
       solute.log_k = s.log_k;
+      if (options_.activity == ActivityModelKind::pitzer) solute.log_k = pitzer_log_k(s);
     }
     const detail::StandardEnthalpy h = detail::standard_enthalpy(database, s);
     solute.reference_enthalpy = h.at_reference;

@@ -119,6 +119,35 @@ void EquilibriumSolver::Impl::residual(const double* x, double* f) {
     }
     f[phase_total_index] = gas_phase_present ? 1.0 - pressure_sum : total;
   }
+  std::copy(f, f + size, latest_residual.begin());
+  std::copy(x, x + size, latest_residual_at.begin());
+}
+
+int EquilibriumSolver::Impl::jacobian_callback(N_Vector u, N_Vector fu, SUNMatrix jm, void* user_data, N_Vector, N_Vector) {
+  auto* self = static_cast<Impl*>(user_data);
+  if (self->chord_step(N_VGetArrayPointer(fu))) {
+    detail::keep_factorization(jm);
+    return 0;
+  }
+  self->jacobian(N_VGetArrayPointer(u), jm);
+  self->factored_this_call = true;
+  self->chord_steps = 0;
+  return 0;
+}
+
+// Near the answer a Newton step from the LU of the step before (a chord step) converges as fast as
+// a new one: the error falls by the factor of the Jacobian's change over one step, which is itself
+// of the order of the residual then (docs/equilibrium.md, "Solving with KINSOL"). A new Jacobian
+// and LU cost three times a chord step's residual, solve and KINSOL's vector work.
+bool EquilibriumSolver::Impl::chord_step(const double* f) {
+  constexpr double chord_residual = 1e-6;  // scaled max-norm of F below which a chord step serves
+  constexpr int most_chord_steps = 2;
+  if (reuse_factorization || !factored_this_call || chord_steps >= most_chord_steps) return false;
+  const double* scale = N_VGetArrayPointer(f_scale);
+  for (std::size_t i = 0; i < size; ++i)
+    if (!(std::abs(f[i] * scale[i]) <= chord_residual)) return false;
+  ++chord_steps;
+  return true;
 }
 
 // ∂F/∂u, column k: ∂(ln γ_i)/∂u_k = (∂ln γ_i/∂m_k) m_k, and likewise for ln a_w.
@@ -257,28 +286,37 @@ void EquilibriumSolver::Impl::set_totals(std::span<const double> amounts, std::s
   // H^+ is balanced by charge; its tableau total is kept for the cold start.
   proton_total = basis_total[0];
   // A basis species with no total is absent, and so is every solute built from it, unless an open
-  // gas supplies it (pure water open to air takes up CO2).
-  const auto available = [&](std::size_t b) {
-    if (basis_total[b] > 0.0) return true;
-    return std::any_of(open.begin(), open.end(), [&](const PhaseSpecies& g) { return g.pivot == b; });
-  };
-  for (std::size_t i = 0; i < n; ++i) {
-    bool present = true;
-    for (std::size_t b = 1; b < nb; ++b)
-      if (stoichiometry[i * nb + b] != 0.0 && !available(b)) present = false;
-    active[i] = present;
+  // gas supplies it (pure water open to air takes up CO2). A gas supplies every basis species of its
+  // formation reaction, not only its pivot: Cl2(g) brings both Cl^- and HOCl(aq).
+  bool same_basis_available = true;
+  for (std::size_t b = 1; b < nb; ++b) {
+    const char here = basis_total[b] > 0.0 ||
+                      std::any_of(open.begin(), open.end(), [&](const PhaseSpecies& g) { return g.stoichiometry[b] != 0.0; });
+    same_basis_available = same_basis_available && here == basis_available[b];
+    basis_available[b] = here;
   }
-  // A solid can form only from present basis species; s_p is the most of it the limiting total allows.
+  const auto& solids = system->solids();
+  // Which solutes and solids can exist changes only with the set of available basis species (most
+  // calls, a flowsheet's iterations, keep it).
+  if (!same_basis_available) {
+    for (std::size_t i = 0; i < n; ++i) {
+      bool present = true;
+      for (std::size_t b = 1; b < nb; ++b)
+        if (stoichiometry[i * nb + b] != 0.0 && !basis_available[b]) present = false;
+      active[i] = present;
+    }
+    // A solid can form only from present basis species.
+    for (std::size_t p = 0; p < solids.size(); ++p) {
+      bool possible = true;
+      for (std::size_t b = 1; b < nb; ++b)
+        if (solids[p].stoichiometry[b] != 0.0 && !basis_available[b]) possible = false;
+      solid_active[p] = possible;
+    }
+  }
+  // s_p is the most of a solid the limiting total allows.
   uptake_scale = water_total * constants::water_molar_mass;
   phase_scale = water_total;
   for (std::size_t b = 1; b < nb; ++b) phase_scale += std::abs(basis_total[b]);
-  const auto& solids = system->solids();
-  for (std::size_t p = 0; p < solids.size(); ++p) {
-    bool possible = true;
-    for (std::size_t b = 1; b < nb; ++b)
-      if (solids[p].stoichiometry[b] != 0.0 && !available(b)) possible = false;
-    solid_active[p] = possible;
-  }
   for (std::size_t a = 0; a < allowed.size(); ++a) {
     const PhaseSpecies& p = solids[allowed[a]];
     double limit = 1e300;
@@ -299,10 +337,15 @@ void EquilibriumSolver::Impl::update_log_k(double t, double p) {
 
 // Scaled max-norm of the residual at the current u, with the charge balance relative to the
 // equivalents of the answer itself.
-double EquilibriumSolver::Impl::scaled_residual_norm() {
+double EquilibriumSolver::Impl::scaled_residual_norm(bool latest_residual_serves) {
   const double* x = N_VGetArrayPointer(u);
   double* f = N_VGetArrayPointer(f_work);
-  residual(x, f);
+  if (latest_residual_serves && std::equal(x, x + size, latest_residual_at.begin())) {
+    std::copy(latest_residual.begin(), latest_residual.end(), f);
+    evaluate_molalities(x);
+  } else {
+    residual(x, f);
+  }
   double charge_scale = 0.0;
   for (std::size_t i = 0; i < n; ++i) charge_scale += 0.5 * std::abs(charge[i]) * molality[i];
   double norm = std::abs(f[0]) / charge_scale;
@@ -318,7 +361,7 @@ std::vector<EquationResidual> EquilibriumSolver::Impl::residual_report() {
   const auto& solutes = system->solutes();
   report.push_back({"charge balance", f[0] * scale[0]});
   for (std::size_t b = 1; b < nb; ++b) report.push_back({"mass balance " + solutes[b].name, f[b] * scale[b]});
-  for (std::size_t i = nb; i < n; ++i) report.push_back({"mass action " + solutes[i].name, f[i]});
+  for (std::size_t i = nb; i < n; ++i) report.push_back({"mass action " + solutes[i].name, f[i] * scale[i]});
   report.push_back({"water balance", f[n] * scale[n]});
   for (std::size_t a = 0; a < allowed.size(); ++a)
     report.push_back({"saturation " + system->solids()[allowed[a]].name, f[solid_offset + a]});

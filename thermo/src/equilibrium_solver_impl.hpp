@@ -55,10 +55,9 @@ struct EquilibriumSolver::Impl {
   static void error_callback(int, const char*, const char* function, char* message, void* user_data) {
     static_cast<Impl*>(user_data)->kinsol_message = fmt::format("{}: {}", function, message);
   }
-  static int jacobian_callback(N_Vector u, N_Vector, SUNMatrix jacobian_matrix, void* user_data, N_Vector, N_Vector) {
-    static_cast<Impl*>(user_data)->jacobian(N_VGetArrayPointer(u), jacobian_matrix);
-    return 0;
-  }
+  static int jacobian_callback(N_Vector u, N_Vector fu, SUNMatrix jacobian_matrix, void* user_data, N_Vector, N_Vector);
+  // Whether the next step may keep the LU already held (a chord step) instead of a new Jacobian.
+  bool chord_step(const double* f);
 
   double jacobian_finite_difference_error(double offset);
   void set_totals(std::span<const double> amounts, std::span<const double> open_gas_pressures);
@@ -70,9 +69,12 @@ struct EquilibriumSolver::Impl {
   bool solve_current_set();
   bool replace_rival(std::size_t added);
   int run_kinsol(int strategy);
+  void scale_mass_action_rows(const double* u, double* scale) const;
   int run_newton();
   bool accepted(int flag);
-  double scaled_residual_norm();
+  // With latest_residual_serves, the residual last evaluated stands for F at u if it was evaluated
+  // there: only where the equations (totals, phases, T, P) cannot have changed since.
+  double scaled_residual_norm(bool latest_residual_serves = false);
   std::vector<EquationResidual> residual_report();
   void fill(Speciation& out, bool warm);
 
@@ -87,8 +89,12 @@ struct EquilibriumSolver::Impl {
   std::vector<double> charge, stoichiometry, water_coefficient, ln_k;
   std::vector<double> ln_k_solid, ln_k_open, ln_k_phase;
   std::vector<char> active, solid_active;
+  // Whether each basis species has a total or an open gas to supply it; set_totals rebuilds
+  // `active` and `solid_active` from it when it changes (2 stands for "not yet set").
+  std::vector<char> basis_available;
   // The active set: which allowed solids are present, whether the closed gas phase is; and the sets
-  // already tried in this solve (flat, one row of allowed.size() + 1 flags each, capacity reserved).
+  // already tried in this solve (flat, one row of allowed.size() + 2 flags each: the phases and the
+  // outcome of their Newton solve; capacity reserved).
   std::vector<char> solid_present, previous_solid_present, tried_sets;
   bool gas_phase_present = false, previous_gas_phase_present = false;
   std::size_t maximum_rounds = 0;
@@ -110,16 +116,22 @@ struct EquilibriumSolver::Impl {
   std::vector<double> shift_by_basis;  // ln of the fraction of each basis species a precipitation leaves
   std::vector<double> guess_x, guess_totals, guess_stoichiometry, guess_ln_k, previous_u, gradient;
   std::vector<double> basis_amount;  // Σ_i ν_ib m_i of each basis species, scratch of the residual
+  std::vector<double> ln_basis_activity;  // ln a_b of each basis species, scratch of fill()
   std::vector<char> guess_active, previous_active;
   bool has_previous = false;
   // The LU in the linear solver: at which T and P its Jacobian was evaluated, and whether the next
   // KINSOL call may start with it (a warm start of the same phase set: docs/equilibrium.md).
   bool factorization_current = false, reuse_factorization = false;
+  // Whether the LU held was made in the current KINSOL call (or kept for its first step), and how
+  // many chord steps have used it since.
+  bool factored_this_call = false;
+  int chord_steps = 0;
   double factored_temperature = -1.0, factored_pressure = -1.0;
   std::vector<char> factored_solid_present;  // the phase set the LU's Jacobian was evaluated for
   bool factored_gas_phase_present = false;
   int last_flag = 0;
   std::string kinsol_message;
+  std::vector<double> latest_residual, latest_residual_at;  // the last F evaluated, and its u
   std::vector<double> evaluated_at;  // the u of the current molalities and activity evaluation
   bool evaluation_valid = false;
   // Non-zero stoichiometry of each solute, so the Jacobian skips the zeros of a sparse tableau.

@@ -16,38 +16,49 @@ using detail::safe_exp;
 // The active-set rule for phases (docs/equilibrium.md): solve with the present phases saturated and
 // the others absent; if a present phase came out with a negative amount, remove the most negative;
 // otherwise, if an absent phase is supersaturated, add the most supersaturated; otherwise done. A
-// set seen before in the same solve is a cycle and an error, so the sets never oscillate.
+// set solved before in the same solve is a cycle and an error, so the sets never oscillate. A set
+// whose Newton solve failed may be met once more, from the answer of a neighbouring set: that start
+// is closer than the one it failed from.
 bool EquilibriumSolver::Impl::settle_phases() {
   constexpr double supersaturation_to_add = 1e-10;  // log10 units, well inside the 1e-8 of the tests
-  const std::size_t width = allowed.size() + 1;
+  // Each row of tried_sets: the present flags of the allowed solids, the gas phase's, the outcome.
+  enum Outcome : char { solved, failed, failed_twice };
+  const std::size_t width = allowed.size() + 2;
   const auto& solids = system->solids();
+  const auto record = [&](Outcome outcome) {
+    tried_sets.insert(tried_sets.end(), solid_present.begin(), solid_present.end());
+    tried_sets.push_back(static_cast<char>(gas_phase_present));
+    tried_sets.push_back(outcome);
+  };
   tried_sets.clear();
   std::ptrdiff_t last_added = -1;
   for (std::size_t round = 0; round < maximum_rounds; ++round) {
     const std::size_t rows = tried_sets.size() / width;
-    for (std::size_t r = 0; r < rows; ++r) {
-      const bool same = std::equal(solid_present.begin(), solid_present.end(), tried_sets.begin() + static_cast<std::ptrdiff_t>(r * width)) &&
-                        tried_sets[r * width + allowed.size()] == static_cast<char>(gas_phase_present);
-      if (same) {
-        std::string phases;
-        for (std::size_t a = 0; a < allowed.size(); ++a)
-          if (solid_present[a]) phases += (phases.empty() ? "" : ", ") + solids[allowed[a]].name;
-        if (gas_phase_present) phases += phases.empty() ? "gas phase" : ", gas phase";
-        throw ConvergenceError(fmt::format("the set of phases present cycles back to {{{}}}; no consistent set was found",
-                                           phases),
-                               residual_report(), 0);
-      }
+    std::size_t row = rows;  // this set's row in tried_sets
+    for (std::size_t r = 0; r < rows && row == rows; ++r)
+      if (std::equal(solid_present.begin(), solid_present.end(), tried_sets.begin() + static_cast<std::ptrdiff_t>(r * width)) &&
+          tried_sets[r * width + allowed.size()] == static_cast<char>(gas_phase_present))
+        row = r;
+    if (row < rows && tried_sets[row * width + width - 1] != failed) {
+      std::string phases;
+      for (std::size_t a = 0; a < allowed.size(); ++a)
+        if (solid_present[a]) phases += (phases.empty() ? "" : ", ") + solids[allowed[a]].name;
+      if (gas_phase_present) phases += phases.empty() ? "gas phase" : ", gas phase";
+      throw ConvergenceError(fmt::format("the set of phases present cycles back to {{{}}}; no consistent set was found",
+                                         phases),
+                             residual_report(), 0);
     }
-    tried_sets.insert(tried_sets.end(), solid_present.begin(), solid_present.end());
-    tried_sets.push_back(static_cast<char>(gas_phase_present));
+    if (row == rows) record(solved);
 
     if (!solve_current_set()) {
-      // A solid just added that cannot coexist with the present ones (gypsum and anhydrite are
-      // both saturated only at one water activity) replaces the present solid it shares a basis
+      tried_sets[row * width + width - 1] = tried_sets[row * width + width - 1] == failed ? failed_twice : failed;
+      // A solid just added that cannot coexist with the present phases (gypsum and anhydrite are
+      // both saturated only at one water activity) replaces a present phase it shares a basis
       // species with; without such a rival the failure stands.
       if (last_added < 0 || !replace_rival(static_cast<std::size_t>(last_added))) return false;
-      tried_sets.insert(tried_sets.end(), solid_present.begin(), solid_present.end());
-      tried_sets.push_back(static_cast<char>(gas_phase_present));
+      record(solved);
+    } else {
+      tried_sets[row * width + width - 1] = solved;
     }
     last_added = -1;
     const double* x = N_VGetArrayPointer(u);
@@ -107,19 +118,45 @@ bool EquilibriumSolver::Impl::settle_phases() {
 bool EquilibriumSolver::Impl::replace_rival(std::size_t added) {
   const auto& solids = system->solids();
   const PhaseSpecies& newcomer = solids[allowed[added]];
-  for (std::size_t rival = 0; rival < allowed.size(); ++rival) {
-    if (rival == added || !solid_present[rival]) continue;
-    bool shares = false;
+  // The rivals that share the most basis species with the newcomer first: a hydrate and its
+  // anhydrous form (mirabilite, thenardite) share all of theirs, halite only Na^+ with them.
+  const auto shared_with = [&](std::size_t rival) {
+    std::size_t shared = 0;
     for (std::size_t b = 1; b < nb; ++b)
-      shares = shares || (newcomer.stoichiometry[b] != 0.0 && solids[allowed[rival]].stoichiometry[b] != 0.0);
-    if (!shares) continue;
-    solid_present[rival] = 0;
-    double* x = N_VGetArrayPointer(u);
-    std::copy(before_addition.begin(), before_addition.end(), x);
-    x[solid_offset + rival] = 0.0;
-    predict_precipitation(added);
-    if (solve_current_set()) return true;
-    solid_present[rival] = 1;
+      shared += newcomer.stoichiometry[b] != 0.0 && solids[allowed[rival]].stoichiometry[b] != 0.0 ? 1 : 0;
+    return shared;
+  };
+  std::size_t most_shared = 0;
+  for (std::size_t rival = 0; rival < allowed.size(); ++rival)
+    if (rival != added && solid_present[rival]) most_shared = std::max(most_shared, shared_with(rival));
+  for (std::size_t count = most_shared; count > 0; --count) {
+    for (std::size_t rival = 0; rival < allowed.size(); ++rival) {
+      if (rival == added || !solid_present[rival] || shared_with(rival) != count) continue;
+      solid_present[rival] = 0;
+      double* x = N_VGetArrayPointer(u);
+      std::copy(before_addition.begin(), before_addition.end(), x);
+      x[solid_offset + rival] = 0.0;
+      predict_precipitation(added);
+      if (solve_current_set()) return true;
+      solid_present[rival] = 1;
+    }
+  }
+  // The gas phase is a rival too where one of its gases shares a basis species with the newcomer:
+  // halite out of a strong brine lowers the ionic strength, and with it the activities that raised
+  // the vapour pressures to the total pressure.
+  if (gas_phase_present) {
+    bool shares = false;
+    for (const PhaseSpecies& gas : system->phase_gases())
+      for (std::size_t b = 1; b < nb; ++b) shares = shares || (newcomer.stoichiometry[b] != 0.0 && gas.stoichiometry[b] != 0.0);
+    if (shares) {
+      gas_phase_present = false;
+      double* x = N_VGetArrayPointer(u);
+      std::copy(before_addition.begin(), before_addition.end(), x);
+      std::fill(x + phase_offset, x + size, 0.0);
+      predict_precipitation(added);
+      if (solve_current_set()) return true;
+      gas_phase_present = true;
+    }
   }
   return false;
 }

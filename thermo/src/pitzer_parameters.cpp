@@ -3,7 +3,9 @@
 
 #include <yaml-cpp/yaml.h>
 
+#include <cmath>
 #include <fmt/format.h>
+#include <initializer_list>
 #include <set>
 
 #include "protonflow/thermo/constants.hpp"
@@ -14,8 +16,8 @@
 namespace protonflow::thermo {
 
 double PitzerCoefficient::at(double temperature) const noexcept {
-  const double dt = temperature - constants::reference_temperature;
-  return value + dt * (d_dT + 0.5 * dt * d2_dT2);
+  const double dt = temperature - reference_temperature;
+  return value + dt * (d_dT + dt * (0.5 * d2_dT2 + dt * d3_dT3 / 6.0));
 }
 
 namespace {
@@ -34,7 +36,8 @@ class ParameterFileReader {
       throw DataError(file_, 0, 0, "cannot open the file");
     }
     if (!root.IsMap()) fail(root, "a Pitzer parameter file is a map of sections (binary, theta, psi, lambda, zeta, ...)");
-    check_keys(root, {"maximum_ionic_strength", "folded_ion_pairs", "binary", "theta", "psi", "lambda", "zeta"});
+    check_keys(root, {"maximum_ionic_strength", "folded_ion_pairs", "binary", "theta", "psi", "lambda", "zeta",
+                      "equilibrium_constants"});
     PitzerParameters p;
     if (root["maximum_ionic_strength"]) p.maximum_ionic_strength = sourced(root["maximum_ionic_strength"]);
     if (const auto pairs = root["folded_ion_pairs"]) {
@@ -46,6 +49,8 @@ class ParameterFileReader {
     for (const auto& node : section(root, "lambda")) p.lambda.push_back(read_pair(node, "lambda"));
     for (const auto& node : section(root, "psi")) p.psi.push_back(read_triple(node, "psi"));
     for (const auto& node : section(root, "zeta")) p.zeta.push_back(read_triple(node, "zeta"));
+    for (const auto& node : section(root, "equilibrium_constants"))
+      p.equilibrium_constants.push_back(read_equilibrium_constant(node));
     return p;
   }
 
@@ -97,21 +102,49 @@ class ParameterFileReader {
     return names;
   }
 
+  // A parameter with its derivatives at the entry's reference temperature (298.15 K unless given).
   PitzerCoefficient coefficient(const YAML::Node& node, const std::string& key) const {
     PitzerCoefficient c;
     if (node[key]) c.value = sourced(node[key]);
     if (node[key + "_dT"]) c.d_dT = sourced(node[key + "_dT"]);
     if (node[key + "_dT2"]) c.d2_dT2 = sourced(node[key + "_dT2"]);
+    if (node[key + "_dT3"]) c.d3_dT3 = sourced(node[key + "_dT3"]);
+    if (node["reference_temperature"]) c.reference_temperature = sourced(node["reference_temperature"]);
+    if (c.reference_temperature <= 0.0) fail(node["reference_temperature"], "the reference temperature is in kelvin, above 0");
     return c;
   }
 
+  static std::set<std::string> with_derivatives(std::initializer_list<const char*> keys) {
+    std::set<std::string> all;
+    for (const std::string key : keys)
+      for (const char* suffix : {"", "_dT", "_dT2", "_dT3"}) all.insert(key + suffix);
+    return all;
+  }
+
   PitzerBinary read_binary(const YAML::Node& node) {
-    check_keys(node, {"species", "beta0", "beta0_dT", "beta0_dT2", "beta1", "beta1_dT", "beta1_dT2", "beta2", "beta2_dT",
-                      "beta2_dT2", "c_phi", "c_phi_dT", "c_phi_dT2", "alpha1", "alpha2", "note"});
+    std::set<std::string> allowed = with_derivatives({"beta0", "beta1", "beta2", "c_phi", "c0", "c1"});
+    allowed.insert({"species", "alpha1", "alpha2", "alpha1_reciprocal_T", "omega", "reference_temperature",
+                    "minimum_temperature", "maximum_temperature", "note"});
+    check_keys(node, allowed);
     const auto names = species(node, 2);
     PitzerBinary b{names[0], names[1], coefficient(node, "beta0"), coefficient(node, "beta1"), coefficient(node, "beta2"),
                    coefficient(node, "c_phi")};
     if (!node["beta0"]) fail(node, fmt::format("the pair {}–{} needs at least beta0", names[0], names[1]));
+    // C⁰ of Archer's form is Cφ / (2√|z_c z_a|) (Pitzer 1991, eq. 3.63): kept as Cφ.
+    if (node["c0"]) {
+      if (node["c_phi"]) fail(node["c0"], "give either c_phi or c0 (= c_phi / (2 sqrt|z_c z_a|)), not both");
+      const double scale = 2.0 * std::sqrt(static_cast<double>(charge_magnitude(names[0]) * charge_magnitude(names[1])));
+      b.c_phi = coefficient(node, "c0");
+      b.c_phi.value *= scale, b.c_phi.d_dT *= scale, b.c_phi.d2_dT2 *= scale, b.c_phi.d3_dT3 *= scale;
+    }
+    b.c1 = coefficient(node, "c1");
+    if (node["omega"]) b.omega = sourced(node["omega"]);
+    if (b.omega <= 0.0) fail(node["omega"], "omega is positive (kg^1/2 mol^-1/2)");
+    if (node["alpha1_reciprocal_T"]) b.alpha1_reciprocal_T = sourced(node["alpha1_reciprocal_T"]);
+    if (node["minimum_temperature"]) b.minimum_temperature = sourced(node["minimum_temperature"]);
+    if (node["maximum_temperature"]) b.maximum_temperature = sourced(node["maximum_temperature"]);
+    if (!(b.minimum_temperature < b.maximum_temperature))
+      fail(node, "the pair's minimum_temperature must lie below its maximum_temperature");
     // α by charge type (Pitzer 1991, ch. 3): α₁ = 2 with no β², except 2:2 salts, α₁ = 1.4 and
     // α₂ = 12; an entry may set its own.
     const bool two_two = charge_magnitude(names[0]) >= 2 && charge_magnitude(names[1]) >= 2;
@@ -152,6 +185,40 @@ class ParameterFileReader {
     const bool ordered = names[0] < names[1] || key == "zeta";
     once(node, key, (ordered ? names[0] + " " + names[1] : names[1] + " " + names[0]) + " " + names[2]);
     return {names[0], names[1], names[2], coefficient(node, key)};
+  }
+
+  // species, the formation reaction it stands for, and a five-term log10 K with one source.
+  PitzerEquilibriumConstant read_equilibrium_constant(const YAML::Node& node) {
+    check_keys(node, {"species", "reaction", "five_term_log10_K", "note"});
+    if (!node["species"]) fail(node, "an equilibrium constant names its 'species'");
+    PitzerEquilibriumConstant k;
+    k.species = species_name(node["species"]);
+    const YAML::Node reaction = node["reaction"];
+    if (!reaction || !reaction.IsMap() || reaction.size() == 0)
+      fail(node, "an equilibrium constant needs 'reaction', a map of basis species to coefficients");
+    for (const auto& term : reaction) {
+      try {
+        k.reaction.emplace_back(species_name(term.first), term.second.as<double>());
+      } catch (const YAML::Exception&) {
+        fail(term.second, "a reaction coefficient is a number");
+      }
+    }
+    const YAML::Node body = node["five_term_log10_K"];
+    if (!body || !body.IsMap() || !body["source"])
+      fail(node, "an equilibrium constant needs 'five_term_log10_K' with its 'source'");
+    check_keys(body, {"constant", "linear_per_K", "reciprocal_K", "log10_T", "reciprocal_square_K2", "source", "note"});
+    k.log_k.form = TemperatureFunction::Form::five_term;
+    const char* terms[] = {"constant", "linear_per_K", "reciprocal_K", "log10_T", "reciprocal_square_K2"};
+    for (std::size_t t = 0; t < 5; ++t) {
+      if (!body[terms[t]]) continue;
+      try {
+        k.log_k.coefficients[t] = body[terms[t]].as<double>();
+      } catch (const YAML::Exception&) {
+        fail(body[terms[t]], "the coefficient is not a number");
+      }
+    }
+    once(node, "equilibrium_constants", k.species);
+    return k;
   }
 
   // A parameter listed twice would be counted twice.

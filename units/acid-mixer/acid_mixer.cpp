@@ -4,8 +4,11 @@
 #include <protonflow/thermo/water_properties.hpp>
 #include <protonflow/units/message_text.hpp>
 #include <protonflow/units/thermo_failure.hpp>
+#include <protonflow/units/toxic_release.hpp>
 
 #include <boost/math/tools/roots.hpp>
+
+#include "mixture_density.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -27,9 +30,18 @@ constexpr double boiling_margin_warning = 5.0;  // K
 // Acid vapour over the outlet worth a warning: 0.1 Pa is about 1 ppm by volume at 1 atm, the order
 // of the ceiling exposure limits for HCl and HNO3 vapour (common practice; check the local limit).
 constexpr double fume_partial_pressure = 0.1;  // Pa
+// H2SO4 vapour worth an acid-mist warning: the pressure at which a saturated headspace at 25 °C holds
+// 1 mg/m³, the NIOSH recommended exposure limit for sulfuric acid (niosh-pocket-guide, from memory):
+// p = c R T / M = 1e-6 kg/m³ × 8.314 J/(mol K) × 298.15 K / 0.098079 kg/mol.
+constexpr double sulfuric_acid_molar_mass = 0.09807848;  // kg/mol, python3-periodictable
+constexpr double gas_constant = 8.314462618;              // J/(mol K), CODATA 2018
+constexpr double sulfuric_acid_mist_pressure = 1e-6 * gas_constant * 298.15 / sulfuric_acid_molar_mass;  // Pa
 // An inlet of at least 20 % acid or caustic by mass is "concentrated" for the standing caution
 // (common practice).
 constexpr double concentrated_fraction = 0.2;
+// Solutes without a tabulated partial molar volume worth naming: above 1 % of the liquid's mass they
+// may shift the density by some tenths of a per cent (docs/units.md, "acid_mixer", density).
+constexpr double untabulated_volume_mass_fraction = 0.01;
 
 std::string inlet_name(std::size_t k) { return "inlet " + std::to_string(k + 1) + " of 'feed'"; }
 
@@ -38,6 +50,38 @@ std::string solute_name(thermo::ConcentratedBinary binary) { return std::string(
 // A unit error from a binary model's refusal, naming what was being done.
 [[noreturn]] void throw_binary_error(const thermo::ThermoError& error, const std::string& what, pfu_status status) {
   throw unit::UnitError(status, "unit 'acid_mixer': " + what + ": " + error.what());
+}
+
+// A binary inlet hotter than its own bubble point at its own pressure is not the liquid it is said to
+// be: in the pipe it would already have flashed steam and acid vapour. The mixer keeps the liquid's
+// enthalpy as given (the model extends smoothly past the bubble point) and warns, naming the inlet,
+// its bubble point and the margin, so that the feed's real state is given instead (its true pressure,
+// or the vapour split off first). Beyond the model's temperature range the inlet is refused
+// elsewhere (binary_enthalpy throws). Docs: docs/units.md, "acid_mixer".
+void warn_if_above_bubble_point(thermo::ConcentratedBinary fallback, const BinaryComposition& composition,
+                                const unit::InletState& inlet, const std::string& name, unit::Warnings& warnings) {
+  const thermo::ConcentratedBinary binary = composition.binary.value_or(fallback);
+  const std::string what = composition.binary ? number_text(100.0 * composition.solute_fraction, 4) + " wt % " +
+                                                    solute_name(binary) + "-water"
+                                              : "water";
+  double bubble = 0.0;
+  try {
+    bubble = thermo::bubble_temperature(binary, composition.solute_fraction, inlet.pressure);
+  } catch (const thermo::BinaryRangeError& error) {
+    if (error.value() > 0.0) return;  // boils above the model's range: below its bubble point here
+    warnings.add("unit 'acid_mixer': " + name + " (" + what + ") at " + number_text(inlet.pressure) +
+                 " Pa boils below the model's lowest temperature, 0 °C: at " + celsius_text(inlet.temperature) +
+                 " it cannot be a liquid; it flashes as it enters (acid vapour, spatter). Give the feed's true pressure "
+                 "or its vapour separately");
+    return;
+  }
+  if (inlet.temperature <= bubble) return;
+  warnings.add("unit 'acid_mixer': " + name + " (" + what + ") enters at " + celsius_text(inlet.temperature) +
+               ", above its bubble point " + celsius_text(bubble) + " at its pressure " + number_text(inlet.pressure) +
+               " Pa by " + number_text(inlet.temperature - bubble, 3) +
+               " K: no such liquid exists there; it flashes as it enters (steam and acid vapour, spatter). The mixer "
+               "takes it as the superheated liquid given; give the feed's true pressure, or cool it, or split its vapour "
+               "off first");
 }
 
 }  // namespace
@@ -152,6 +196,7 @@ void AcidMixer::solve_binary(thermo::ConcentratedBinary binary, std::span<const 
                                     " wt %, " + number_text(inlets[k].temperature) + " K)",
                          PFU_BAD_INLET);
     }
+    warn_if_above_bubble_point(binary, *inlet.binary, inlets[k], inlet_name(k), warnings);
     mass += inlet.mass;
     solute_mass += inlet.mass * inlet.binary->solute_fraction;
     enthalpy += inlet.enthalpy;
@@ -301,6 +346,17 @@ void AcidMixer::solve_binary(thermo::ConcentratedBinary binary, std::span<const 
                  " ppm by volume at the outlet pressure): corrosive and toxic; enclose and scrub the vent, and check the "
                  "local exposure limit");
   }
+  if (binary == thermo::ConcentratedBinary::sulfuric_acid && out.liquid_solute_mass_fraction > 0.0) {
+    // H2SO4 vapour over strong hot acid condenses to mist as it cools (concentrated_binary.hpp).
+    const double p_acid = thermo::sulfuric_acid_vapour_pressure(out.temperature, out.liquid_solute_mass_fraction);
+    if (p_acid > sulfuric_acid_mist_pressure) {
+      const double milligram_per_m3 = 1e6 * p_acid * sulfuric_acid_molar_mass / (gas_constant * out.temperature);
+      warnings.add(at + "H2SO4 vapour: " + number_text(p_acid, 3) + " Pa over the outlet liquid (" +
+                   number_text(milligram_per_m3, 3) + " mg/m3 in a saturated headspace, above the 1 mg/m3 exposure "
+                   "limit): it condenses to acid mist as it cools; enclose the vessel and take its vent through a mist "
+                   "eliminator, and check the local exposure limit");
+    }
+  }
   if (out.temperature > hot_liquor_temperature) {
     warnings.add(at + "hot corrosive liquor: the product leaves at " + celsius_text(out.temperature) + " with " +
                  number_text(100.0 * out.liquid_solute_mass_fraction, 3) + " wt % " + solute +
@@ -333,6 +389,7 @@ void AcidMixer::solve_engine(std::span<const unit::InletState> inlets, double pr
       } catch (const thermo::ThermoError& error) {
         throw_binary_error(error, inlet_name(k), PFU_BAD_INLET);
       }
+      warn_if_above_bubble_point(*inlet.binary->binary, *inlet.binary, inlets[k], inlet_name(k), warnings);
     } else if (DryStream::is_dry(inlets[k])) {
       // A dry gas or dry solids: their phases as given, at the inlet's temperature (dry_stream.hpp).
       inlet.enthalpy_at_25 = dry_.enthalpy(inlets[k], reference_temperature, inlet_name(k) + " (dry) at 25 C");
@@ -370,6 +427,7 @@ void AcidMixer::solve_engine(std::span<const unit::InletState> inlets, double pr
   const double product_enthalpy = product_.enthalpy();
   product.temperature = out.temperature;
   warn_about_product(type, "scaling of the vessel and the lines after it, blocked outlets", *system_, out, inlet_phases_, warnings);
+  warn_about_toxic_release(type, *system_, out, warnings);
   warn_about_model(type, "product", out, warnings);
   placement_.write(product_.totals(), out, product, warnings);
 
@@ -442,6 +500,26 @@ void AcidMixer::solve_engine(std::span<const unit::InletState> inlets, double pr
   for (std::size_t c = 0; c < product.component_count; ++c) vapour += product.flow(PFU_GAS_ROW, c) * system_->component_molar_mass(c);
   results.set("vapour_flow", vapour);
   results.set("model", 2.0);
+
+  // The liquid's density by infinite-dilution partial molar volumes (mixture_density.hpp).
+  double liquid_mass = 0.0;
+  for (std::size_t c = 0; c < product.component_count; ++c)
+    liquid_mass += product.flow(PFU_AQUEOUS_ROW, c) * system_->component_molar_mass(c);
+  if (liquid_mass > 0.0) {
+    const MixtureDensity liquid = mixture_density(*system_, out, liquid_mass);
+    results.set("density", liquid.density);
+    results.set("volumetric_flow", liquid_mass / liquid.density);
+    if (liquid.without_volume_mass_fraction > untabulated_volume_mass_fraction) {
+      std::string names;
+      for (const std::string& name : liquid.without_volume) names += (names.empty() ? "" : ", ") + name;
+      warnings.add("unit 'acid_mixer': density: " + number_text(100.0 * liquid.without_volume_mass_fraction, 3) +
+                   " % of the liquid's mass is in solutes without a tabulated partial molar volume (" + names +
+                   "), counted at the density of water; the density may be off by some tenths of a per cent");
+    }
+  } else {
+    results.set("density", 0.0);  // no liquid left: nothing has a density
+    results.set("volumetric_flow", 0.0);
+  }
   warn_common(out.temperature, acid_fraction, results, warnings);
 }
 

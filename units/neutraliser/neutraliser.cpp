@@ -28,6 +28,17 @@ constexpr double gain_step = 1e-6;
 constexpr double enthalpy_match_kelvin = 1e-6;
 constexpr int max_newton_steps = 8;
 
+// Aeration: O2 from air enters at 25 °C, where as an element in its standard state its enthalpy is
+// zero on the NBS convention the species data use [nbs-1982]; the heat of the oxidation is then the
+// difference of the species' formation enthalpies, carried by the product's enthalpy.
+constexpr double oxygen_enthalpy = 0.0;  // J/mol
+// Air: O2 20.9476 mol % of dry air at sea level [us-standard-atmosphere-1976]. O2 31.998 g/mol
+// (IUPAC standard atomic weight of O, 15.999 [iupac-atomic-weights]). Normal volume: the ideal
+// gas at 273.15 K and 101325 Pa, R T / P = 0.0224140 m3/mol (R from CODATA 2018).
+constexpr double oxygen_in_air = 0.209476;
+constexpr double oxygen_molar_mass = 0.031998;  // kg/mol
+constexpr double normal_molar_volume = 8.314462618 * 273.15 / 101325.0;  // m3/mol
+
 double nan() { return std::numeric_limits<double>::quiet_NaN(); }
 
 }  // namespace
@@ -53,6 +64,8 @@ Neutraliser::Neutraliser(const unit::Parameters& parameters, const unit::Slate& 
       product_(type, *system_),
       titration_(*system_),
       inlet_phases_{"inlets", 0.0, std::vector<double>(system_->solids().size(), 0.0)},
+      aeration_(type, *system_, parameters.number(FerrousAeration::parameter)),
+      aerated_feed_(slate.components.size(), 0.0),
       flows_(slate.components.size(), 0.0) {
   const std::string prefix = "unit 'neutraliser': ";
   if (!to_target_ && parameters.given("target_ph")) {
@@ -172,7 +185,9 @@ void Neutraliser::solve(std::span<const unit::InletState> inlets, std::span<unit
     throw unit::UnitError(PFU_BAD_INLET,
                           "unit 'neutraliser': no reagent has flow; mode target_ph needs their composition to find the dose");
   }
-  titration_.set_streams(feed_.totals(), reagent_.totals());
+  // Aeration (when asked) oxidises Fe(II) in the feed's totals; the ratio stays per kg of feed as it enters.
+  aeration_.apply(feed_.totals(), aerated_feed_);
+  titration_.set_streams(aerated_feed_, reagent_.totals(), mass_flow(*system_, feed_.totals()));
   titration_.reset_count();
   guess_temperature_ = feed.temperature;
 
@@ -196,7 +211,8 @@ void Neutraliser::solve(std::span<const unit::InletState> inlets, std::span<unit
                                     PFU_BAD_INLET);
     reagent_enthalpy += reagent_streams_[k].enthalpy();
   }
-  const double feed_enthalpy = feed_.enthalpy();
+  // The feed with the O2 its aeration takes (oxygen_enthalpy): what enters besides the reagents.
+  const double feed_enthalpy = feed_.enthalpy() + aeration_.oxygen() * oxygen_enthalpy;
 
   double ratio = titration_.inlet_ratio();
   if (to_target_) {
@@ -280,6 +296,12 @@ void Neutraliser::solve(std::span<const unit::InletState> inlets, std::span<unit
   for (std::size_t e = 0; e < reported_elements.size(); ++e) {
     results.set(dissolved[e], analysis_.dissolved_mg_per_litre(e, out).value_or(nan()));
   }
+  const double oxygen = aeration_.oxygen();
+  results.set("fe2_oxidised", aeration_.oxidised());
+  results.set("o2_demand", oxygen);
+  results.set("o2_demand_mass", oxygen * oxygen_molar_mass * 3600.0);
+  results.set("air_demand", oxygen / oxygen_in_air);
+  results.set("air_demand_volume", oxygen / oxygen_in_air * normal_molar_volume * 3600.0);
 }
 
 // The titration curve at the outlet temperature, from no reagent to curve_ratio_max (or twice the

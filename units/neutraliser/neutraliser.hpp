@@ -7,6 +7,8 @@
 //   fixed_reagent: s = 1;  target_ph: x such that pH(equilibrium of n(x) at T_out) = pH_set
 //   adiabatic:      H(equilibrium of n(x) at T_out) = H_feed + s H_reagent
 //   at_temperature: T_out = T_set;  duty = H_out − H_feed − s H_reagent
+//   aeration (fe2_oxidised_fraction f > 0): n_feed takes Fe^2+ + 1/4 O2 + H^+ -> Fe^3+ + 1/2 H2O for
+//     f of its Fe(II) before all of the above (ferrous_aeration.hpp); the O2 enters at 25 °C, H = 0
 #pragma once
 
 #include <protonflow/unit_module.hpp>
@@ -23,8 +25,9 @@
 #include <span>
 #include <vector>
 
+#include "ferrous_aeration.hpp"
 #include "liquor_analysis.hpp"
-#include "titration.hpp"
+#include <protonflow/units/titration.hpp>
 
 namespace protonflow::units {
 
@@ -72,7 +75,11 @@ class Neutraliser {
       unit::number("curve_ratio_max", "1", 0.0, 0.0, 1e6,
                    "kg of reagent per kg of feed at the curve's end; 0: twice the operating ratio (max_reagent_ratio "
                    "where that is 0)"),
-      activity_model_parameter, precipitate_form_parameter};
+      activity_model_parameter, precipitate_form_parameter,
+      unit::number(FerrousAeration::parameter, "1", 0.0, 0.0, 1.0,
+                   "share of the feed's Fe(II) oxidised to Fe(III) by aeration before the equilibrium, "
+                   "Fe^2+ + 1/4 O2 + H^+ -> Fe^3+ + 1/2 H2O; 0: no aeration; needs an Fe(III) component (Fe(OH)3, FeCl3, "
+                   "Fe2(SO4)3) on the slate")};
   static constexpr std::array results{
       unit::result("outlet_ph", "1", "pH of the treated liquor, -log10 a(H+)"),
       unit::result("feed_ph", "1", "pH of the feed at its own equilibrium"),
@@ -93,7 +100,13 @@ class Neutraliser {
       unit::result("dissolved_ni", "mg/L", "nickel still dissolved; NaN where the slate has none"),
       unit::result("dissolved_ca", "mg/L", "calcium still dissolved; NaN where the slate has none"),
       unit::result("dissolved_mg", "mg/L", "magnesium still dissolved; NaN where the slate has none"),
-      unit::result("dissolved_f", "mg/L", "fluoride still dissolved; NaN where the slate has none")};
+      unit::result("dissolved_f", "mg/L", "fluoride still dissolved; NaN where the slate has none"),
+      unit::result("fe2_oxidised", "mol/s", "Fe(II) oxidised to Fe(III) by aeration (fe2_oxidised_fraction of the feed's)"),
+      unit::result("o2_demand", "mol/s", "O2 the aeration consumes: 1/4 mol per mol of Fe(II) oxidised (stoichiometric)"),
+      unit::result("o2_demand_mass", "kg/h", "the same O2 by mass"),
+      unit::result("air_demand", "mol/s", "air carrying that O2 at 20.9476 mol % (U.S. Standard Atmosphere 1976), "
+                                          "all of it consumed: the blower's air is this over the O2 transfer efficiency"),
+      unit::result("air_demand_volume", "m3/h", "the same air as normal volume, ideal gas at 0 °C and 101.325 kPa")};
   static constexpr std::array series{
       unit::series("titration", "reagent_ratio", "1", "pH", "1", 10001,
                    "pH of feed and reagent at equilibrium at the outlet temperature, against kg of reagent per kg of feed")};
@@ -134,6 +147,8 @@ class Neutraliser {
   EquilibriumStream product_;
   Titration titration_;
   InletPhases inlet_phases_;
+  FerrousAeration aeration_;
+  std::vector<double> aerated_feed_;  // the feed's totals after aeration (a copy without it)
   std::vector<double> flows_;  // scratch: the product's totals as one aqueous row
   double guess_temperature_ = 0.0;  // K: where the next adiabatic search starts
   double heat_capacity_ = 0.0;      // W/K: of the product, from the first Newton step

@@ -1,6 +1,7 @@
 #include "release_warnings.hpp"
 
 #include <protonflow/units/message_text.hpp>
+#include <protonflow/units/toxic_release.hpp>
 
 #include <array>
 #include <cstddef>
@@ -13,7 +14,8 @@ namespace {
 // Exposure limits in ppm by volume, NIOSH Pocket Guide to Chemical Hazards (niosh-pocket-guide,
 // from memory): the recommended limit (ceiling or 8-h average) and the level immediately dangerous
 // to life or health (IDLH). The neutraliser warns where the gas in equilibrium with the liquor
-// passes the recommended limit.
+// passes the recommended limit. Cl2 and HCN, released where hypochlorite or cyanide meets acid, are
+// the shared warnings of every chemistry unit (toxic_release.hpp).
 struct ExposureLimit {
   std::string_view gas;  // the gas species' name in the data
   std::string_view what;
@@ -22,9 +24,7 @@ struct ExposureLimit {
 };
 constexpr std::array exposure_limits{
     ExposureLimit{"H2S(g)", "hydrogen sulfide (from sulfide meeting acid)", 10.0, 100.0},
-    ExposureLimit{"Cl2(g)", "chlorine (from hypochlorite or chlorine meeting acid)", 0.5, 10.0},
     ExposureLimit{"NH3(g)", "ammonia (from ammonium meeting base)", 25.0, 300.0},
-    ExposureLimit{"HCN(g)", "hydrogen cyanide (from cyanide meeting acid)", 4.7, 50.0},
     ExposureLimit{"SO2(g)", "sulfur dioxide (from sulfite meeting acid)", 2.0, 100.0},
     ExposureLimit{"HCl(g)", "hydrogen chloride", 5.0, 50.0},
     ExposureLimit{"HF(g)", "hydrogen fluoride", 3.0, 30.0},
@@ -62,6 +62,7 @@ void warn_about_release(std::string_view unit_type, const thermo::ChemicalSystem
                    "vent the tank");
     }
   }
+  warn_about_toxic_release(unit_type, system, product, warnings);
   if (product.temperature > hot_outlet) {
     warnings.add(prefix + "hot outlet: the treated slurry leaves at " + celsius_text(product.temperature) +
                  " (above 60 °C): it scalds on contact and may exceed the discharge temperature limit; cool it or dose "

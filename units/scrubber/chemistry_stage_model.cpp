@@ -9,6 +9,14 @@
 
 namespace protonflow::scrubber {
 
+namespace {
+
+// The floor share of a trace component in a stage's speciation (see evaluate()): far below the
+// engine's tolerance of 1e-13 on every balance, far above the 1e-22 where its Newton slows.
+constexpr double trace_share = 1e-16;
+
+}  // namespace
+
 ChemistryStageModel::ChemistryStageModel(const thermo::ChemicalSystem& liquid_system,
                                          const thermo::ChemicalSystem& flash_system, std::vector<ColumnGas> gases)
     : system_(&liquid_system),
@@ -24,14 +32,28 @@ void ChemistryStageModel::prepare(std::size_t stages) {
   }
 }
 
+const std::vector<double>& ChemistryStageModel::with_traces_at_floor(std::span<const double> amounts) {
+  double total = 0.0;
+  for (const double amount : amounts) total += amount;
+  const double floor = trace_share * total;
+  solve_amounts_.assign(amounts.begin(), amounts.end());
+  for (double& amount : solve_amounts_)
+    if (amount > 0.0 && amount < floor) amount = floor;
+  return solve_amounts_;
+}
+
 // The stage's totals at equilibrium with a gas phase at the given pressure (the engine's closed
 // gas phase, docs/equilibrium.md): the gas holds each column gas's amount, the liquid the rest.
 void ChemistryStageModel::flash(std::size_t stage, double temperature, double pressure, std::span<const double> totals,
                                 std::span<double> liquid, std::span<double> gas) {
-  flash_solvers_[stage].solve(temperature, pressure, totals, flash_state_);
+  // Traces at their floor, as in evaluate(); a trace's gas share is then scaled back to its total.
+  const std::vector<double>& floored = with_traces_at_floor(totals);
+  flash_solvers_[stage].solve(temperature, pressure, floored, flash_state_);
   std::copy(totals.begin(), totals.end(), liquid.begin());
   for (std::size_t k = 0; k < gases_.size(); ++k) {
-    const double amount = flash_state_.gas_phase_present ? flash_state_.gas_amount[gases_[k].phase_gas] : 0.0;
+    const std::size_t c = gases_[k].liquid_component;
+    const double share = c == no_component || floored[c] == 0.0 ? 1.0 : totals[c] / floored[c];
+    const double amount = flash_state_.gas_phase_present ? flash_state_.gas_amount[gases_[k].phase_gas] * share : 0.0;
     gas[k] = amount;
     if (gases_[k].liquid_component != no_component) liquid[gases_[k].liquid_component] -= amount;
   }
@@ -46,11 +68,18 @@ void ChemistryStageModel::flash(std::size_t stage, double temperature, double pr
 // so a trace total (the HCl left near the top of a caustic column, 1e-20 mol/kg) is held only to a
 // few digits, while its mass-action ratios are exact: the factor restores the trace total exactly,
 // and with it Henry's law linear in the trace amount, which the column's Jacobian needs. For a
-// converged major total the factor is 1 to round-off.
+// converged major total the factor is 1 to round-off; a trace raised to its floor for the
+// speciation (below) is scaled back to its own amount by the same factor.
 void ChemistryStageModel::evaluate(std::size_t stage, double temperature, double pressure, std::span<const double> liquid,
                                    StageEquilibrium& out) {
   thermo::Speciation& state = states_[stage];
-  solvers_[stage].solve(temperature, pressure, liquid, state);
+  // A trace component is speciated at a floor share of the liquid instead of its own amount: the
+  // engine's Newton takes some twenty iterations even from a warm start once a total falls below
+  // about 1e-22 of the solution (HCl near the top of a long caustic column, and the Newton iterates
+  // on the way there), against one to four above it. At the floor the trace moves nothing else in
+  // the solution (1e-16 of it, below the engine's own tolerance), so its species keep the
+  // proportions they would have at the true amount, and the factor below scales them back to it.
+  solvers_[stage].solve(temperature, pressure, with_traces_at_floor(liquid), state);
   const double ln_water_activity = std::log(state.water_activity);
   const std::size_t basis_count = system_->basis_count();
   for (std::size_t b = 1; b < basis_count; ++b) {

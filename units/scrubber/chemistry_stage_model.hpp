@@ -54,6 +54,9 @@ class ChemistryStageModel final : public StageModel {
   const thermo::ChemicalSystem& system() const noexcept { return *system_; }
 
  private:
+  // The amounts with every positive one below 1e-16 of their sum raised to that floor (evaluate()).
+  const std::vector<double>& with_traces_at_floor(std::span<const double> amounts);
+
   const thermo::ChemicalSystem* system_;
   std::vector<ColumnGas> gases_;
   const thermo::ChemicalSystem* flash_system_;
@@ -62,6 +65,7 @@ class ChemistryStageModel final : public StageModel {
   thermo::Speciation flash_state_;
   std::vector<thermo::Speciation> states_;
   std::vector<double> ln_total_ratio_;  // per basis species, scratch of evaluate()
+  std::vector<double> solve_amounts_;  // the liquid with its traces at their floor, scratch of evaluate()
 };
 
 }  // namespace protonflow::scrubber

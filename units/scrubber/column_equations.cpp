@@ -105,6 +105,23 @@ void ColumnEquations::constraints(double* c) const {
   for (std::size_t i = 0; i < size(); ++i) c[i] = i % block_ == temperature_slot() ? 2.0 : -2.0;
 }
 
+bool ColumnEquations::can_start_from(const ColumnProfile& profile) const {
+  if (profile.stages != stages_ || profile.liquid.size() != stages_ * liquid_count_ || profile.gas.size() != stages_ * gas_count_ ||
+      profile.temperature.size() != stages_)
+    return false;
+  const double largest = std::exp(log_flow_limit_);
+  const auto fits = [&](double flow) { return flow > 0.0 && flow < largest && std::log(flow) - log_flow_limit_ > -700.0; };
+  for (std::size_t j = 0; j < stages_; ++j) {
+    for (const std::size_t c : liquid_unknowns_)
+      if (!fits(profile.liquid[j * liquid_count_ + c])) return false;
+    for (const std::size_t k : gas_unknowns_)
+      if (!fits(profile.gas[j * gas_count_ + k])) return false;
+    const double t = profile.temperature[j];
+    if (!(t >= temperature_floor_ && t <= model_.maximum_temperature())) return false;
+  }
+  return true;
+}
+
 void ColumnEquations::pack(const ColumnProfile& profile, double* x) const {
   for (std::size_t j = 0; j < stages_; ++j) {
     double* block = x + j * block_;

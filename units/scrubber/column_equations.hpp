@@ -36,6 +36,9 @@ class ColumnEquations {
   // Position of the temperature in a block, and whether an unknown is a temperature.
   std::size_t temperature_slot() const noexcept { return block_ - 1; }
 
+  // Whether a profile can start Newton: as many stages, a positive flow for every unknown, every
+  // temperature inside the stage model's range.
+  bool can_start_from(const ColumnProfile& profile) const;
   // A profile as unknowns and back (flows of absent components and gases are zero).
   void pack(const ColumnProfile& profile, double* x) const;
   ColumnProfile unpack(const double* x) const;

@@ -18,13 +18,15 @@ namespace protonflow::scrubber {
 
 namespace {
 
-// Two attempts, the second more careful: more sweeps of the start, shorter Newton steps (scaled
-// 2-norm of the step; ln(flow) is already of order one).
+// Three attempts: the second more careful (more sweeps of the start, shorter Newton steps; scaled
+// 2-norm of the step, ln(flow) is already of order one); the third with long steps, for a gas that
+// the liquor takes up to a trace tens of decades down on several stages at once (CO2 in air on
+// caustic), where every Newton step is long and KINSOL stops after five of the longest allowed.
 struct Attempt {
   int sweeps;
   double max_step;
 };
-constexpr Attempt attempts[] = {{8, 50.0}, {24, 15.0}};
+constexpr Attempt attempts[] = {{8, 50.0}, {24, 15.0}, {8, 200.0}};
 
 // What the callbacks share with the driver: the equations, and the first failure of a stage
 // evaluation (a speciation that did not converge, a temperature out of the data's range).
@@ -100,12 +102,10 @@ std::vector<StageResidual> largest_residuals(detail::ColumnEquations& equations,
 
 namespace {
 
-// One solve from a start of `sweeps` sweeps, Newton steps at most `max_step` long.
-ColumnProfile solve_once(detail::ColumnEquations& equations, const ColumnSpecification& specification, int sweeps,
-                         double max_step) {
-  const ColumnProfile start = equations.start_profile(sweeps);
+// One solve from `start`, Newton steps at most `max_step` long.
+ColumnProfile solve_from(detail::ColumnEquations& equations, const ColumnSpecification& specification,
+                         const ColumnProfile& start, double max_step) {
   CallbackData data{&equations, {}};
-
 
   // Set-up: context, vectors, the band matrix (half-bandwidths 2b − 1 for blocks of b unknowns)
   // and its LU solver, the options.
@@ -171,11 +171,20 @@ ColumnProfile solve_once(detail::ColumnEquations& equations, const ColumnSpecifi
 
 }  // namespace
 
-ColumnProfile solve_column(StageModel& model, const ColumnSpecification& specification, const ColumnFeeds& feeds) {
+ColumnProfile solve_column(StageModel& model, const ColumnSpecification& specification, const ColumnFeeds& feeds,
+                           const ColumnProfile* previous) {
   detail::ColumnEquations equations(model, specification, feeds);
+  // A previous answer of the same column (the last pass of a recycle) is a better start than any
+  // sweep: Newton from it, and from a cold start only if that fails.
+  if (previous != nullptr && equations.can_start_from(*previous)) {
+    try {
+      return solve_from(equations, specification, *previous, attempts[0].max_step);
+    } catch (const ColumnConvergenceError&) {
+    }
+  }
   for (std::size_t a = 0;; ++a) {
     try {
-      return solve_once(equations, specification, attempts[a].sweeps, attempts[a].max_step);
+      return solve_from(equations, specification, equations.start_profile(attempts[a].sweeps), attempts[a].max_step);
     } catch (const ColumnConvergenceError&) {
       if (a + 1 == std::size(attempts)) throw;
     }

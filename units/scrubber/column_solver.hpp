@@ -57,8 +57,10 @@ class ColumnConvergenceError : public std::runtime_error {
   long iterations_;
 };
 
-// Solves the column from a cold start (column_start.hpp). Throws ColumnConvergenceError, or
-// std::invalid_argument for feeds or a specification that make no column.
-ColumnProfile solve_column(StageModel& model, const ColumnSpecification& specification, const ColumnFeeds& feeds);
+// Solves the column: from `previous` (an answer of the same column at other feeds) where it is
+// given and fits, else, or if Newton from it fails, from a cold start (column_start.cpp). Throws
+// ColumnConvergenceError, or std::invalid_argument for feeds or a specification that make no column.
+ColumnProfile solve_column(StageModel& model, const ColumnSpecification& specification, const ColumnFeeds& feeds,
+                           const ColumnProfile* previous = nullptr);
 
 }  // namespace protonflow::scrubber

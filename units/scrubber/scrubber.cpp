@@ -6,10 +6,12 @@
 #include <protonflow/units/message_text.hpp>
 #include <protonflow/units/product_warnings.hpp>
 #include <protonflow/units/thermo_failure.hpp>
+#include <protonflow/units/titration.hpp>
 
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <optional>
 #include <string>
 
 namespace protonflow::scrubber {
@@ -25,6 +27,12 @@ constexpr std::size_t none = StageModel::no_component;
 // practice; Directive 2010/75/EU, Annex VI, Part 2, from memory).
 constexpr double normal_temperature = 273.15;
 constexpr double normal_pressure = 101325.0;
+// The steady recirculation: the recirculated liquor's relative change in a pass at which column and
+// sump count as converged, the most passes, and the most negative Wegstein factor (an
+// acceleration of 1 − q = 21 at most; the slope of a recirculation of 95 % of the outflow).
+constexpr double sump_tolerance = 1e-10;
+constexpr long sump_passes = 200;
+constexpr double wegstein_lowest = -20.0;
 // The most stages the search for an emission limit tries.
 constexpr std::size_t most_stages_for_limit = 100;
 // A liquor above this pH takes up CO2 as carbonate and wastes reagent on it (common practice: acid-
@@ -67,6 +75,7 @@ ColumnChemistry build_chemistry(const unit::Slate& slate, const std::string& act
 // (docs/units.md, "scrubber", "Reagent").
 double bound_protons(const thermo::ChemicalSystem& system, const thermo::Speciation& state, std::size_t basis) {
   double bound = 0.0;
+  if (state.molality.empty()) return 0.0;  // a stream that is not there
   for (std::size_t s = 0; s < system.solutes().size(); ++s) {
     const auto& nu = system.solutes()[s].stoichiometry;
     if (nu[basis] != 0.0) bound += state.molality[s] * state.water_mass * nu[basis] * nu[0];
@@ -82,6 +91,11 @@ Scrubber::Scrubber(const unit::Parameters& parameters, const unit::Slate& slate)
       emission_limit_(parameters.number("emission_limit")),
       reference_oxygen_(parameters.given("reference_oxygen") ? parameters.number("reference_oxygen") : not_a_number),
       oxygen_gas_(none),
+      recirculation_(parameters.number("recirculation_rate")),
+      bleed_rate_(parameters.given("bleed_rate") ? parameters.number("bleed_rate") : not_a_number),
+      bleed_fraction_(parameters.number("bleed_fraction")),
+      sump_ph_(parameters.given("sump_ph") ? parameters.number("sump_ph") : not_a_number),
+      fresh_water_temperature_(parameters.number("fresh_water_temperature")),
       chemistry_(build_chemistry(slate, parameters.text("activity_model"))),
       model_(std::make_unique<ChemistryStageModel>(*chemistry_.liquid_system, *chemistry_.flash_system, chemistry_.gases)) {
   const double stages = parameters.number("stages");
@@ -115,6 +129,20 @@ Scrubber::Scrubber(const unit::Parameters& parameters, const unit::Slate& slate)
   } else if (parameters.given("emission_limit")) {
     throw unit::UnitError(PFU_INVALID_PARAMETER, "unit 'scrubber': emission_limit is given but limit_gas is none");
   }
+  const bool bleed_given = parameters.given("bleed_rate") || parameters.given("bleed_fraction");
+  if (recirculation_ > 0.0) {
+    if (parameters.given("bleed_rate") && parameters.given("bleed_fraction"))
+      throw unit::UnitError(PFU_INVALID_PARAMETER, "unit 'scrubber': give bleed_rate or bleed_fraction, not both");
+    if (!bleed_given)
+      throw unit::UnitError(PFU_INVALID_PARAMETER,
+                            "unit 'scrubber': recirculation_rate needs a bleed: give bleed_rate (kg/s) or bleed_fraction");
+    sump_ = std::make_unique<Sump>(*chemistry_.liquid_system);
+  } else {
+    for (const char* name : {"bleed_rate", "bleed_fraction", "sump_ph", "fresh_water_temperature"})
+      if (parameters.given(name))
+        throw unit::UnitError(PFU_INVALID_PARAMETER, std::string("unit 'scrubber': ") + name +
+                                                         " is given but recirculation_rate is 0: the column has no sump");
+  }
 }
 
 ColumnProfile Scrubber::solve_stages(std::size_t stages, const ColumnSpecification& base, const ColumnFeeds& feeds) {
@@ -122,7 +150,12 @@ ColumnProfile Scrubber::solve_stages(std::size_t stages, const ColumnSpecificati
   specification.stages = stages;
   model_->prepare(stages);
   try {
-    return solve_column(*model_, specification, feeds);
+    // Each stage count starts from its own last answer: in a recycle the feeds change little from
+    // one pass to the next (docs/units.md, "Solution").
+    const auto previous = previous_profiles_.find(stages);
+    ColumnProfile profile = solve_column(*model_, specification, feeds, previous == previous_profiles_.end() ? nullptr : &previous->second);
+    previous_profiles_[stages] = profile;
+    return profile;
   } catch (const ColumnConvergenceError& error) {
     std::string message = std::string("unit 'scrubber': ") + error.what();
     for (const StageResidual& r : error.residuals())
@@ -131,6 +164,110 @@ ColumnProfile Scrubber::solve_stages(std::size_t stages, const ColumnSpecificati
   } catch (const thermo::ThermoError& error) {
     units::throw_unit_error(error, type, "the liquor feed", PFU_BAD_INLET);
   }
+}
+
+// Column and sump in turn, each pass the column on the sump's liquor of the last, the sump on the
+// column's spent liquor, to a steady recirculated liquor (docs/units.md, "scrubber", "Sump").
+// Per-component Wegstein steps [wegstein-1958], bounded as common practice, speed the passes,
+// which alone converge like the recirculated share of the outflow to a power.
+Scrubber::SumpAnswer Scrubber::solve_with_sump(const ColumnSpecification& specification, ColumnFeeds& feeds,
+                                               std::span<const double> reagent, double reagent_temperature) {
+  const thermo::ChemicalSystem& system = *chemistry_.liquid_system;
+  const std::size_t count = feeds.liquid.size();
+  const std::size_t water = system.index_of_component("H2O");
+  const std::vector<double> make_up = feeds.liquid;
+  const double make_up_temperature = feeds.liquid_temperature;
+  const double bleed = std::isnan(bleed_rate_) ? recirculation_ * bleed_fraction_ / (1.0 - bleed_fraction_) : bleed_rate_;
+  const double outflow = recirculation_ + bleed;
+  SumpDose dose = std::isnan(sump_ph_) ? SumpDose::as_delivered : SumpDose::setpoint;
+  double highest_ph = not_a_number;
+  bool raises = true;  // the reagent raises the pH (a base), as the unreachable setpoint said
+
+  // The unknowns x: the recirculated liquor per kg (mol/kg per component) and its temperature.
+  // A cold start: fresh water.
+  std::vector<double> x(count + 1, 0.0), g(count + 1), x_last, g_last;
+  x[water] = 1.0 / system.component_molar_mass(water);
+  x[count] = fresh_water_temperature_;
+  SumpAnswer answer;
+  for (long pass = 1; pass <= sump_passes; ++pass) {
+    for (std::size_t c = 0; c < count; ++c) feeds.liquid[c] = recirculation_ * x[c];
+    feeds.liquid_temperature = x[count];
+    answer.profile = solve_stages(stages_, specification, feeds);
+    const std::size_t n = answer.profile.stages;
+    const std::span<const double> bottoms(answer.profile.liquid.data() + (n - 1) * count, count);
+    try {
+      answer.mix = sump_->mix({bottoms, answer.profile.temperature.back()}, {make_up, make_up_temperature},
+                              {reagent, reagent_temperature}, fresh_water_temperature_, outflow, specification.pressure, dose,
+                              sump_ph_, x[count]);
+    } catch (const SumpSetpointUnreachable& unreachable) {
+      // Not reached at this pass's column liquor: dose the most the flows allow until the steady
+      // state says whether the setpoint is reachable there.
+      dose = SumpDose::most;
+      raises = unreachable.highest_ph() < sump_ph_;
+      --pass;
+      continue;
+    } catch (const thermo::ThermoError& error) {
+      units::throw_unit_error(error, type, "the sump's liquor", PFU_NOT_CONVERGED);
+    }
+    bool setpoint_in_reach = false;
+    if (dose == SumpDose::most) {
+      setpoint_in_reach = raises ? answer.mix.state.ph >= sump_ph_ : answer.mix.state.ph <= sump_ph_;
+      if (setpoint_in_reach) dose = SumpDose::setpoint;
+    }
+    for (std::size_t c = 0; c < count; ++c) g[c] = answer.mix.totals[c] / outflow;
+    g[count] = answer.mix.temperature;
+    // Converged when no component of the recirculated liquor moves by more than sump_tolerance of
+    // itself (above a floor of sump_tolerance of the water's amount) and the temperature by 1e-6 K.
+    double residual = std::abs(g[count] - x[count]) / x[count];
+    std::size_t worst = count;
+    for (std::size_t c = 0; c < count; ++c) {
+      const double change = std::abs(g[c] - x[c]) / std::max(std::abs(g[c]), 1e-6 * g[water]);
+      if (change > residual) {
+        residual = change;
+        worst = c;
+      }
+    }
+    answer.iterations = pass;
+    answer.residual = residual;
+    if (residual <= sump_tolerance && std::abs(g[count] - x[count]) <= 1e-6 && !setpoint_in_reach) {
+      // What leaves the unit is what the sump made less what the column was fed: the unit's
+      // balances close to round-off, the bleed's composition is the sump's to the tolerance.
+      answer.bleed.assign(count, 0.0);
+      for (std::size_t c = 0; c < count; ++c) answer.bleed[c] = std::max(0.0, answer.mix.totals[c] - feeds.liquid[c]);
+      if (dose == SumpDose::most) {
+        highest_ph = answer.mix.state.ph;
+        throw unit::UnitError(PFU_INVALID_PARAMETER,
+                              "unit 'scrubber': sump_ph " + number_text(sump_ph_, 4) + " is unreachable: the highest pH this "
+                              "reagent can hold in the sump at these flows is " + number_text(highest_ph, 4) + " at " +
+                              units::celsius_text(answer.mix.temperature) + ", with every kg of fresh water replaced by " +
+                              number_text(answer.mix.reagent_flow, 4) + " kg/s of reagent; a stronger reagent or a larger bleed is needed");
+      }
+      return answer;
+    }
+    // The next pass: a bounded Wegstein step per unknown once two passes give its slope.
+    std::vector<double> next = g;
+    if (!x_last.empty()) {
+      for (std::size_t i = 0; i <= count; ++i) {
+        const double dx = x[i] - x_last[i];
+        if (dx == 0.0) continue;
+        const double slope = (g[i] - g_last[i]) / dx;
+        const double q = std::clamp(slope / (slope - 1.0), wegstein_lowest, 0.0);
+        const double step = q * x[i] + (1.0 - q) * g[i];
+        if (step >= 0.0 && std::isfinite(step)) next[i] = step;
+      }
+    }
+    x_last = x;
+    g_last = g;
+    x = next;
+    if (pass == sump_passes) {
+      const std::string where = worst == count ? std::string("its temperature") : "component " + system.components()[worst];
+      throw unit::UnitError(PFU_NOT_CONVERGED, "unit 'scrubber': column and sump did not reach a steady recirculation in " +
+                                                   std::to_string(sump_passes) + " passes: the recirculated liquor still moves by " +
+                                                   number_text(residual, 3) + " of itself (" + where + "), against " +
+                                                   number_text(sump_tolerance, 3));
+    }
+  }
+  throw unit::UnitError(PFU_NOT_CONVERGED, "unit 'scrubber': the sump's reagent dose could not be settled");
 }
 
 double Scrubber::dry_concentration(const ColumnProfile& profile, std::size_t gas) const {
@@ -186,16 +323,40 @@ void Scrubber::solve(std::span<const unit::InletState> inlets, std::span<unit::O
     if (amount < 0.0) throw unit::UnitError(PFU_BAD_INLET, "unit 'scrubber': the liquor cannot be written as the column's components");
   }
   feeds.liquid_temperature = liquor_in.temperature;
+  // The reagent (optional port): into the sump, on the column's liquid components.
+  std::vector<double> sump_reagent(liquid_count, 0.0);
+  double reagent_temperature = fresh_water_temperature_;
+  if (inlets.size() > 2) {
+    const unit::InletState& reagent_in = inlets[2];
+    for (std::size_t row = 0; row < rows; ++row)
+      for (std::size_t c = 0; c < slate_count; ++c)
+        if (row != PFU_AQUEOUS_ROW && reagent_in.flow(row, c) != 0.0)
+          throw unit::UnitError(PFU_BAD_INLET, "unit 'scrubber': inlet 'reagent_in' carries gas or solids; the sump takes a solution only");
+    sump_reagent = chemistry_.liquid_of(reagent_in.phase(PFU_AQUEOUS_ROW));
+    for (double& amount : sump_reagent) {
+      if (amount < 0.0 && amount > -1e-12 * std::abs(sump_reagent.front())) amount = 0.0;
+      if (amount < 0.0) throw unit::UnitError(PFU_BAD_INLET, "unit 'scrubber': the reagent cannot be written as the column's components");
+    }
+    if (std::ranges::any_of(sump_reagent, [](double f) { return f > 0.0; })) reagent_temperature = reagent_in.temperature;
+  }
+  const bool reagent_flows = std::ranges::any_of(sump_reagent, [](double f) { return f > 0.0; });
   double gas_total = 0.0, liquid_total = 0.0;
   for (const double f : feeds.gas) gas_total += f;
   for (const double f : feeds.liquid) liquid_total += f;
   if (!(gas_total > 0.0)) throw unit::UnitError(PFU_BAD_INLET, "unit 'scrubber': inlet 'gas_in' has no gas flow");
-  if (!(liquid_total > 0.0)) throw unit::UnitError(PFU_BAD_INLET, "unit 'scrubber': inlet 'liquor_in' has no flow");
+  if (!sump_ && !(liquid_total > 0.0)) throw unit::UnitError(PFU_BAD_INLET, "unit 'scrubber': inlet 'liquor_in' has no flow");
+  if (!sump_ && reagent_flows)
+    throw unit::UnitError(PFU_BAD_INLET, "unit 'scrubber': inlet 'reagent_in' has flow but the column has no sump: set recirculation_rate");
+  if (sump_ && !std::isnan(sump_ph_) && !reagent_flows)
+    throw unit::UnitError(PFU_BAD_INLET,
+                          "unit 'scrubber': sump_ph needs a reagent: connect inlet 'reagent_in' with a flow (its composition counts)");
 
   ColumnSpecification specification;
   specification.pressure = gas_in.pressure;
   specification.efficiency = efficiency_;
-  const ColumnProfile profile = solve_stages(stages_, specification, feeds);
+  std::optional<SumpAnswer> sump;
+  if (sump_) sump = solve_with_sump(specification, feeds, sump_reagent, reagent_temperature);
+  const ColumnProfile profile = sump ? sump->profile : solve_stages(stages_, specification, feeds);
   const std::size_t n = profile.stages;
 
   // Outlets: the top stage's gas, the bottom stage's liquid, each at its stage's temperature.
@@ -206,10 +367,10 @@ void Scrubber::solve(std::span<const unit::InletState> inlets, std::span<unit::O
   for (std::size_t k = 0; k < gas_count; ++k)
     gas_out.flow(PFU_GAS_ROW, chemistry_.slate_component[chemistry_.gases[k].liquid_component]) = profile.gas[k];
   for (std::size_t c = 0; c < liquid_count; ++c)
-    liquor_out.flow(PFU_AQUEOUS_ROW, chemistry_.slate_component[c]) = profile.liquid[(n - 1) * liquid_count + c];
+    liquor_out.flow(PFU_AQUEOUS_ROW, chemistry_.slate_component[c]) = sump ? sump->bleed[c] : profile.liquid[(n - 1) * liquid_count + c];
   gas_out.temperature = profile.temperature.front();
   gas_out.pressure = specification.pressure;
-  liquor_out.temperature = profile.temperature.back();
+  liquor_out.temperature = sump ? sump->mix.temperature : profile.temperature.back();
   liquor_out.pressure = specification.pressure;
 
   // Results per gas of the trade.
@@ -219,6 +380,7 @@ void Scrubber::solve(std::span<const unit::InletState> inlets, std::span<unit::O
   const thermo::Speciation& spent = model_->state(n - 1);
   const thermo::Speciation& fed = model_->state(n);
   double reagent = 0.0, reagent_to_co2 = 0.0;
+  const double bleed_share = sump ? units::mass_flow(system, sump->bleed) / units::mass_flow(system, sump->mix.totals) : 0.0;
   for (std::size_t t = 0; t < trade_gases.size(); ++t) {
     const std::string gas_name = trade_gases[t];
     double ppmv = not_a_number, concentration = not_a_number, removal = not_a_number;
@@ -241,12 +403,35 @@ void Scrubber::solve(std::span<const unit::InletState> inlets, std::span<unit::O
       if (nu[b] != 0.0) basis = b;
     if (basis == none) continue;  // water
     const double absorbed = feeds.gas[k] - profile.gas[k];
-    const double handed = absorbed * nu[0] / nu[basis] - (bound_protons(system, spent, basis) - bound_protons(system, fed, basis)) / nu[basis];
+    // The column alone: its spent liquor against its feed. With a sump, the unit as a whole: the
+    // bleed (the sump's liquor, scaled) against the make-up and the reagent dosed.
+    const double bound_change =
+        sump ? bound_protons(system, sump->mix.state, basis) * bleed_share - bound_protons(system, sump->mix.make_up_state, basis) -
+                   sump->mix.reagent_scale * bound_protons(system, sump->mix.reagent_state, basis)
+             : bound_protons(system, spent, basis) - bound_protons(system, fed, basis);
+    const double handed = absorbed * nu[0] / nu[basis] - bound_change / nu[basis];
     reagent += handed;
     if (gas.component == "CO2") reagent_to_co2 = handed;
   }
   results.set("reagent_consumed", reagent);
   results.set("reagent_to_co2", reagent_to_co2);
+  results.set("reagent_share_to_co2", reagent > 0.0 ? reagent_to_co2 / reagent : not_a_number);
+  if (sump) {
+    const double outflow = units::mass_flow(system, sump->mix.totals);
+    const double water = sump->mix.totals[system.index_of_component("H2O")] * system.component_molar_mass(system.index_of_component("H2O"));
+    results.set("sump_ph", sump->mix.state.ph);
+    results.set("sump_temperature", sump->mix.temperature);
+    results.set("reagent_flow", sump->mix.reagent_flow);
+    results.set("fresh_water", sump->mix.fresh_water);
+    results.set("bleed_flow", units::mass_flow(system, sump->bleed));
+    results.set("sump_dissolved_solids", (outflow - water) / outflow);
+    results.set("sump_iterations", static_cast<double>(sump->iterations));
+    results.set("sump_residual", sump->residual);
+  } else {
+    for (const char* name : {"sump_ph", "sump_temperature", "reagent_flow", "fresh_water", "bleed_flow", "sump_dissolved_solids",
+                             "sump_iterations", "sump_residual"})
+      results.set(name, not_a_number);
+  }
   double water_evaporated = not_a_number;
   for (std::size_t k = 0; k < gas_count; ++k)
     if (chemistry_.gases[k].component == "H2O") water_evaporated = profile.gas[k] - feeds.gas[k];
@@ -325,6 +510,16 @@ void Scrubber::solve(std::span<const unit::InletState> inlets, std::span<unit::O
       }
     }
   }
+  if (sump) {
+    const thermo::Speciation& state = sump->mix.state;
+    highest_ph = std::max(highest_ph, state.ph);
+    for (std::size_t s = 0; s < state.saturation_index.size(); ++s) {
+      if (state.saturation_index[s] > highest_index) {
+        highest_index = state.saturation_index[s];
+        scaling_solid = system.solids()[s].name;
+      }
+    }
+  }
   if (reagent_to_co2 > 0.25 * reagent && reagent > 0.0 && highest_ph > carbon_dioxide_ph)
     warnings.add(prefix + "the liquor reaches pH " + number_text(highest_ph, 3) + " and CO2 pickup takes " +
                  number_text(100.0 * reagent_to_co2 / reagent, 3) +
@@ -337,6 +532,9 @@ void Scrubber::solve(std::span<const unit::InletState> inlets, std::span<unit::O
       warnings.add(prefix + "chlorine in the gas: toxic; in alkaline liquor it forms hypochlorite, which releases chlorine "
                             "again if the spent liquor meets acid, and its hydrolysis is not modelled here");
   }
+  if (sump && sump->mix.setpoint_passed)
+    warnings.add(prefix + "sump_ph " + number_text(sump_ph_, 4) + " is not held: with no reagent the sump is at pH " +
+                 number_text(sump->mix.state.ph, 4) + ", past the setpoint; the reagent would move it further");
   units::warn_about_model(type, "spent liquor", spent, warnings);
   units::InletPhases none_in{"inlets", 0.0, std::vector<double>(system.solids().size(), 0.0)};
   units::warn_about_product(type, "scale on packing, nozzles and the sump", system, spent, none_in, warnings);

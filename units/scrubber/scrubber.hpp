@@ -11,6 +11,7 @@
 #include <protonflow/units/stream_chemistry.hpp>
 
 #include <array>
+#include <map>
 #include <memory>
 #include <span>
 #include <vector>
@@ -18,6 +19,7 @@
 #include "chemistry_stage_model.hpp"
 #include "column_chemistry.hpp"
 #include "column_solver.hpp"
+#include "sump.hpp"
 
 namespace protonflow::scrubber {
 
@@ -30,9 +32,15 @@ class Scrubber {
       "stage temperatures and humidification from the energy balance";
   static constexpr std::array ports{
       unit::inlet("gas_in", PFU_PHASE_GAS, "gas to clean, into the bottom stage"),
-      unit::inlet("liquor_in", PFU_PHASE_AQUEOUS, "scrubbing liquor (water, caustic, soda ash), onto the top stage"),
+      unit::inlet("liquor_in", PFU_PHASE_AQUEOUS,
+                  "scrubbing liquor (water, caustic, soda ash) onto the top stage; with recirculation_rate, the make-up "
+                  "into the sump"),
+      unit::inlet("reagent_in", PFU_PHASE_AQUEOUS,
+                  "with recirculation_rate: reagent solution (NaOH, soda ash) into the sump, dosed to hold sump_ph "
+                  "(then only its composition counts) or as it comes",
+                  PFU_PORT_OPTIONAL),
       unit::outlet("gas_out", PFU_PHASE_GAS, "cleaned gas, from the top stage"),
-      unit::outlet("liquor_out", PFU_PHASE_AQUEOUS, "spent liquor, from the bottom stage")};
+      unit::outlet("liquor_out", PFU_PHASE_AQUEOUS, "spent liquor from the bottom stage; with recirculation_rate, the bleed from the sump")};
   // The gases of the trade, as the results and per-gas efficiencies name them, and their formulas.
   static constexpr std::array<const char*, 7> trade_gases{"hcl", "so2", "hf", "cl2", "nh3", "h2s", "co2"};
   static constexpr std::array<const char*, 7> trade_formulas{"HCl", "SO2", "HF", "Cl2", "NH3", "H2S", "CO2"};
@@ -53,6 +61,16 @@ class Scrubber {
                    "emission limit for limit_gas, per normal cubic metre (0 degC, 101.325 kPa) of dry gas"),
       unit::number("reference_oxygen", "1", 0.0, 0.0, 0.2,
                    "O2 volume fraction of dry gas the outlet concentrations are corrected to; default: no correction"),
+      unit::number("recirculation_rate", "kg/s", 0.0, 0.0, unit::unbounded,
+                   "liquor pumped from the sump over the column; 0: no sump, the liquor passes once"),
+      unit::number("bleed_rate", "kg/s", 0.0, 0.0, unit::unbounded,
+                   "liquor bled from the sump (with recirculation_rate; or give bleed_fraction)"),
+      unit::number("bleed_fraction", "1", 0.0, 0.0, 0.99,
+                   "the sump's outflow that is bled rather than recirculated (with recirculation_rate; or give bleed_rate)"),
+      unit::number("sump_ph", "1", 7.0, 0.0, 14.0,
+                   "pH the reagent dose holds in the sump; default: the reagent as it comes"),
+      unit::number("fresh_water_temperature", "K", 293.15, 273.15, 373.15,
+                   "temperature of the fresh water the sump takes to hold its liquor balance"),
       units::activity_model_parameter};
   static constexpr std::array results{
       unit::result("gas_outlet_temperature", "K", "temperature of the cleaned gas (top stage)"),
@@ -80,10 +98,19 @@ class Scrubber {
       unit::result("removal_h2s", "1", "fraction of the H2S fed in the gas that the column removes"),
       unit::result("removal_co2", "1", "fraction of the CO2 fed in the gas that the column removes (negative: released)"),
       unit::result("stages_for_limit", "1", "fewest stages that meet emission_limit at these flows (NaN: no limit, or not within 100)"),
-      unit::result("reagent_consumed", "mol/s", "protons the absorbed gases hand to the liquor's base, all gases"),
+      unit::result("reagent_consumed", "mol/s", "protons the absorbed gases hand to the liquor's base, all gases (with recirculation_rate: the bleed against make-up and reagent)"),
       unit::result("reagent_to_co2", "mol/s", "the part of reagent_consumed taken by CO2 pickup (negative: carbonate gives CO2 up)"),
       unit::result("water_evaporated", "mol/s", "water vapour gained by the gas (negative: condensed)"),
-      unit::result("newton_iterations", "1", "Newton iterations of the column solve")};
+      unit::result("newton_iterations", "1", "Newton iterations of the column solve"),
+      unit::result("reagent_share_to_co2", "1", "reagent_to_co2 as a fraction of reagent_consumed (NaN when none is consumed)"),
+      unit::result("sump_ph", "1", "pH of the sump's liquor at its temperature (NaN without recirculation)"),
+      unit::result("sump_temperature", "K", "temperature of the sump's liquor (NaN without recirculation)"),
+      unit::result("reagent_flow", "kg/s", "reagent dosed into the sump (NaN without recirculation)"),
+      unit::result("fresh_water", "kg/s", "fresh water the sump takes to hold its liquor balance (NaN without recirculation)"),
+      unit::result("bleed_flow", "kg/s", "liquor bled from the sump (NaN without recirculation)"),
+      unit::result("sump_dissolved_solids", "1", "kg of everything but water per kg of the sump's liquor (NaN without recirculation)"),
+      unit::result("sump_iterations", "1", "passes of column and sump to the steady recirculation (NaN without recirculation)"),
+      unit::result("sump_residual", "1", "largest relative change of the recirculated liquor in the last pass (NaN without recirculation)")};
 
   // Stage profiles, top stage first (x: the stage number, 1 at the top). A gas not on the slate
   // leaves its two series empty.
@@ -115,6 +142,17 @@ class Scrubber {
  private:
   ColumnProfile solve_stages(std::size_t stages, const ColumnSpecification& base, const ColumnFeeds& feeds);
   double dry_concentration(const ColumnProfile& profile, std::size_t gas) const;  // kg per normal m³, top stage
+  // Column and sump to the steady recirculation (docs/units.md, "scrubber", "Sump"): the column's
+  // liquor feed, the sump's mix and the bleed (mol/s per liquid component) at the answer.
+  struct SumpAnswer {
+    ColumnProfile profile;
+    SumpMix mix;
+    std::vector<double> bleed;
+    long iterations = 0;
+    double residual = 0.0;
+  };
+  SumpAnswer solve_with_sump(const ColumnSpecification& specification, ColumnFeeds& feeds, std::span<const double> reagent,
+                             double reagent_temperature);
 
   std::size_t stages_;
   std::vector<double> efficiency_;  // per column gas
@@ -122,8 +160,15 @@ class Scrubber {
   double emission_limit_;           // kg/m³
   double reference_oxygen_;         // dry volume fraction, NaN for no correction
   std::size_t oxygen_gas_;          // column gas O2, or StageModel::no_component
+  double recirculation_;            // kg/s; 0: no sump
+  double bleed_rate_;               // kg/s, or NaN when bleed_fraction is given
+  double bleed_fraction_;
+  double sump_ph_;                  // NaN: the reagent as it comes
+  double fresh_water_temperature_;  // K
   ColumnChemistry chemistry_;       // owns the liquid system the stage model points at: must not move
   std::unique_ptr<ChemistryStageModel> model_;
+  std::unique_ptr<Sump> sump_;      // with recirculation only
+  std::map<std::size_t, ColumnProfile> previous_profiles_;  // the last answer at each stage count solved
 };
 
 }  // namespace protonflow::scrubber

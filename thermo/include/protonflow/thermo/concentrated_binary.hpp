@@ -127,4 +127,12 @@ AdiabaticOutlet adiabatic_outlet(ConcentratedBinary binary, double solute_mass_f
 // Where the ionic engine may take over from this model (see IonicModelScope).
 IonicModelScope ionic_model_scope(ConcentratedBinary binary, double solute_mass_fraction);
 
+// Partial pressure (Pa) of H2SO4 vapour over H2SO4–H2O at T (K) and mass fraction w: p = a_s p°(T),
+// with the acid's activity a_s (pure liquid H2SO4 reference) from Gibbs–Duhem on this model's water
+// activity, and p° of pure H2SO4(l) from Ayers, Gillett & Gras (1980), measured 338–445 K and
+// extrapolated along the same line. SO3 in the vapour (above about 98 wt %) is left out. For an acid-mist
+// warning, not for the bubble point (H2SO4 vapour is a few Pa at most below 473 K). Throws
+// BinaryRangeError outside the H2SO4 binary's range. Docs: docs/concentrated-acids.md.
+double sulfuric_acid_vapour_pressure(double temperature, double solute_mass_fraction);
+
 }  // namespace protonflow::thermo

@@ -5,24 +5,46 @@
 #include <filesystem>
 #include <string>
 #include <string_view>
+#include <utility>
 #include <vector>
+
+#include "protonflow/thermo/temperature_function.hpp"
 
 namespace protonflow::thermo {
 
-// A parameter as a function of temperature: the Taylor form about 298.15 K of Silvester & Pitzer
-// (1977), P(T) = P + (∂P/∂T)(T − T_r) + ½ (∂²P/∂T²)(T − T_r)².
+// A parameter as a function of temperature: the Taylor form of Silvester & Pitzer (1977) about
+// T_r = 298.15 K, P(T) = P + (∂P/∂T)(T − T_r) + ½ (∂²P/∂T²)(T − T_r)², with the cubic term and the
+// other reference temperature of Clegg, Rard & Pitzer (1994, eq. 24: T_r = 328.15 K).
 struct PitzerCoefficient {
   double value = 0.0;
   double d_dT = 0.0;    // K⁻¹
   double d2_dT2 = 0.0;  // K⁻²
+  double d3_dT3 = 0.0;  // K⁻³
+  double reference_temperature = 298.15;  // K
   double at(double temperature) const noexcept;
 };
 
-// One cation–anion pair: β⁰, β¹, β², Cφ and the α of its charge type.
+// One cation–anion pair: β⁰, β¹, β², Cφ and the α of its charge type, and Archer's (1992) extension
+// of the third virial term, C^T(I) = C⁰ + 4 C¹ h(ω√I), with C⁰ = Cφ/(2√|z_c z_a|).
 struct PitzerBinary {
   std::string cation, anion;  // species names, e.g. "Na^+", "Cl^-"
   PitzerCoefficient beta0, beta1, beta2, c_phi;
   double alpha1 = 2.0, alpha2 = 0.0;  // kg^½ mol^-½
+  PitzerCoefficient c1{};             // C¹, on the scale of C⁰ (not of Cφ)
+  double omega = 2.5;                 // ω of the C¹ term, kg^½ mol^-½
+  // α₁(T) = alpha1 + alpha1_reciprocal_T (1/T − 1/298.15 K), K (Clegg, Rard & Pitzer 1994, H^+–SO4^2-)
+  double alpha1_reciprocal_T = 0.0;
+  // The temperatures the pair's functions were fitted over, K: beyond them every parameter of the
+  // pair is held at its value at the nearer edge (a cubic in T runs away outside its fit).
+  double minimum_temperature = 0.0, maximum_temperature = 1e9;
+};
+
+// An equilibrium constant fitted together with a parameter set: with this model, it replaces the
+// species data's log10 K of the species' formation reaction (which must be the same reaction).
+struct PitzerEquilibriumConstant {
+  std::string species;                                       // e.g. "HSO4^-"
+  std::vector<std::pair<std::string, double>> reaction;      // basis species and coefficients, as the species data
+  TemperatureFunction log_k;
 };
 
 struct PitzerPair {  // θ of two ions of the same sign, or λ of a neutral species with another species
@@ -45,6 +67,7 @@ struct PitzerParameters {
   // Ca–SO4): a system solved with this model leaves them out, or they would be counted twice.
   std::vector<std::string> folded_ion_pairs;
   double maximum_ionic_strength = 6.0;  // mol/kg, where the parameter set's fits stop
+  std::vector<PitzerEquilibriumConstant> equilibrium_constants;
 };
 
 // Reads one parameter file; throws DataError with file, line and column.

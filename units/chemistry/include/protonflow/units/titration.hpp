@@ -7,6 +7,13 @@
 //
 // with n the component totals (mol/s, all phases), m the mass flows (kg/s) and x in kg of reagent
 // per kg of feed. Every equilibrium warm-starts from the previous one (one solver, reused).
+//
+// At constant outflow (a sump whose make-up water is cut back as reagent goes in), each kg of
+// reagent displaces a kg of a given stream d of the feed (mass m_d, kg/s):
+//
+//   n(x) = n_feed + s(x) n_reagent − x m_feed / m_d · n_d
+//
+// so that the mass of n(x) stays m_feed, and x can go no higher than m_d / m_feed.
 #pragma once
 
 #include <protonflow/thermo/chemical_system.hpp>
@@ -29,6 +36,17 @@ class Titration {
 
   // The feed's and the reagent's totals (mol/s per component, all phases) as they enter.
   void set_streams(std::span<const double> feed, std::span<const double> reagent);
+  // The same, at constant outflow: each kg of reagent displaces a kg of displaced, a stream of the
+  // feed (its totals, mol/s per component, all phases; it must have mass).
+  void set_streams(std::span<const double> feed, std::span<const double> reagent, std::span<const double> displaced);
+  // The highest ratio with no more of the displaced stream displaced than the feed holds; infinite
+  // without a displaced stream.
+  double displacement_limit() const noexcept;
+  // The parameter names the dose search's errors use (default: target_ph, max_reagent_ratio).
+  void name_parameters(std::string target, std::string ratio_max);
+  // The same with the feed's mass (kg/s) as it enters, where its totals were changed before the
+  // equilibrium (aeration adds oxygen): the ratio stays per kg of the feed as it enters.
+  void set_streams(std::span<const double> feed, std::span<const double> reagent, double feed_mass);
   double feed_mass() const noexcept { return feed_mass_; }        // kg/s
   double reagent_mass() const noexcept { return reagent_mass_; }  // kg/s, as it enters
   // The ratio (kg/kg) of the reagent as it enters.
@@ -65,9 +83,13 @@ class Titration {
   thermo::EquilibriumSolver reagent_solver_;
   std::vector<double> feed_;
   std::vector<double> reagent_;
+  std::vector<double> displaced_;
   std::vector<double> totals_;
   double feed_mass_ = 0.0;
   double reagent_mass_ = 0.0;
+  double displaced_mass_ = 0.0;  // 0: nothing displaced
+  std::string target_name_ = "target_ph";
+  std::string ratio_max_name_ = "max_reagent_ratio";
   thermo::Speciation state_;
   thermo::Speciation reagent_state_;
   long solves_ = 0;

@@ -1,4 +1,4 @@
-#include "titration.hpp"
+#include <protonflow/units/titration.hpp>
 
 #include <protonflow/thermo/errors.hpp>
 #include <protonflow/unit_module.hpp>
@@ -10,6 +10,7 @@
 #include <cmath>
 #include <cstdint>
 #include <limits>
+#include <utility>
 
 namespace protonflow::units {
 
@@ -39,6 +40,7 @@ Titration::Titration(const thermo::ChemicalSystem& system)
       reagent_solver_(system),
       feed_(system.components().size(), 0.0),
       reagent_(system.components().size(), 0.0),
+      displaced_(system.components().size(), 0.0),
       totals_(system.components().size(), 0.0) {}
 
 void Titration::set_streams(std::span<const double> feed, std::span<const double> reagent) {
@@ -46,11 +48,35 @@ void Titration::set_streams(std::span<const double> feed, std::span<const double
   std::ranges::copy(reagent, reagent_.begin());
   feed_mass_ = mass_flow(*system_, feed_);
   reagent_mass_ = mass_flow(*system_, reagent_);
+  std::ranges::fill(displaced_, 0.0);
+  displaced_mass_ = 0.0;
+}
+
+void Titration::set_streams(std::span<const double> feed, std::span<const double> reagent,
+                            std::span<const double> displaced) {
+  set_streams(feed, reagent);
+  std::ranges::copy(displaced, displaced_.begin());
+  displaced_mass_ = mass_flow(*system_, displaced_);
+}
+
+double Titration::displacement_limit() const noexcept {
+  return displaced_mass_ > 0.0 ? displaced_mass_ / feed_mass_ : std::numeric_limits<double>::infinity();
+}
+
+void Titration::name_parameters(std::string target, std::string ratio_max) {
+  target_name_ = std::move(target);
+  ratio_max_name_ = std::move(ratio_max);
+}
+
+void Titration::set_streams(std::span<const double> feed, std::span<const double> reagent, double feed_mass) {
+  set_streams(feed, reagent);
+  feed_mass_ = feed_mass;
 }
 
 std::span<const double> Titration::totals_at(double ratio) {
   const double scale = reagent_mass_ > 0.0 ? ratio * feed_mass_ / reagent_mass_ : 0.0;
-  for (std::size_t c = 0; c < totals_.size(); ++c) totals_[c] = feed_[c] + scale * reagent_[c];
+  const double displaced = displaced_mass_ > 0.0 ? ratio * feed_mass_ / displaced_mass_ : 0.0;
+  for (std::size_t c = 0; c < totals_.size(); ++c) totals_[c] = feed_[c] + scale * reagent_[c] - displaced * displaced_[c];
   return totals_;
 }
 
@@ -76,7 +102,7 @@ double Titration::find_ratio(double target, double temperature, double pressure,
     const double high_miss = ph_at(high, temperature, pressure) - target;
     if ((low_miss < 0.0) != (high_miss < 0.0)) return search(target, temperature, pressure, low, high, low_miss, high_miss, unit_type);
   }
-  const std::string prefix = "unit '" + unit_type + "': target_ph " + number_text(target, 4) + ": ";
+  const std::string prefix = "unit '" + unit_type + "': " + target_name_ + " " + number_text(target, 4) + ": ";
   const double start = ph_at(0.0, temperature, pressure);
   if (std::abs(start - target) <= ph_match) return 0.0;
   const double end = ph_at(ratio_max, temperature, pressure);
@@ -85,7 +111,7 @@ double Titration::find_ratio(double target, double temperature, double pressure,
   if (raises != needs_raise) {
     throw unit::UnitError(PFU_INVALID_PARAMETER,
                           prefix + "the feed alone is at pH " + number_text(start, 4) + " and this reagent " +
-                              (raises ? "raises" : "lowers") + " the pH (to " + number_text(end, 4) + " at max_reagent_ratio " +
+                              (raises ? "raises" : "lowers") + " the pH (to " + number_text(end, 4) + " at " + ratio_max_name_ + " " +
                               number_text(ratio_max, 4) + " kg/kg); the target needs " + (needs_raise ? "a base" : "an acid"));
   }
   if ((raises && end < target) || (!raises && end > target)) {
@@ -95,24 +121,24 @@ double Titration::find_ratio(double target, double temperature, double pressure,
     } catch (const thermo::ThermoError&) {
       // A dry reagent (lime powder) has no water and so no pH of its own to bound the curve.
       throw unit::UnitError(PFU_INVALID_PARAMETER,
-                            prefix + "not reached within max_reagent_ratio " + number_text(ratio_max, 4) +
+                            prefix + "not reached within " + ratio_max_name_ + " " + number_text(ratio_max, 4) +
                                 " kg/kg, where the pH is " + number_text(end, 4) +
                                 "; the reagent alone cannot be equilibrated (it carries no water), so the highest pH it "
-                                "can give is not known here: raise max_reagent_ratio or choose a stronger reagent");
+                                "can give is not known here: raise " + ratio_max_name_ + " or choose a stronger reagent");
     }
     const bool beyond_reagent = raises ? target >= limit : target <= limit;
     if (beyond_reagent) {
       throw unit::UnitError(PFU_INVALID_PARAMETER,
                             prefix + "unreachable: the " + (raises ? "highest" : "lowest") + " pH this reagent can give is " +
                                 number_text(limit, 4) + " at " + celsius_text(temperature) +
-                                " (the reagent's own pH, approached as the dose grows without bound); at max_reagent_ratio " +
+                                " (the reagent's own pH, approached as the dose grows without bound); at " + ratio_max_name_ + " " +
                                 number_text(ratio_max, 4) + " kg/kg the pH is " + number_text(end, 4) +
                                 "; a stronger reagent is needed");
     }
     throw unit::UnitError(PFU_INVALID_PARAMETER,
-                          prefix + "not reached within max_reagent_ratio " + number_text(ratio_max, 4) +
+                          prefix + "not reached within " + ratio_max_name_ + " " + number_text(ratio_max, 4) +
                               " kg/kg, where the pH is " + number_text(end, 4) + "; the reagent alone is at pH " +
-                              number_text(limit, 4) + ", so a larger max_reagent_ratio will reach it");
+                              number_text(limit, 4) + ", so a larger " + ratio_max_name_ + " will reach it");
   }
   if (std::abs(end - target) <= ph_match) return ratio_max;
 
@@ -122,7 +148,7 @@ double Titration::find_ratio(double target, double temperature, double pressure,
 // TOMS 748 on g(x) = pH(x) − target over [low, high], where g changes sign.
 double Titration::search(double target, double temperature, double pressure, double low, double high, double low_miss,
                          double high_miss, const std::string& unit_type) {
-  const std::string prefix = "unit '" + unit_type + "': target_ph " + number_text(target, 4) + ": ";
+  const std::string prefix = "unit '" + unit_type + "': " + target_name_ + " " + number_text(target, 4) + ": ";
   double best_ratio = low;
   double best_miss = low_miss;
   if (std::abs(high_miss) < std::abs(low_miss)) {
