@@ -404,6 +404,8 @@ std::vector<ReferenceCase> build_cases() {
        }) {
     cases.push_back({metals, quantity, source, published, 0.005, model});
   }
+  cases.push_back({metals, "ΔfH° of Cr^3+(aq), kJ/mol", "Ball & Nordstrom 1998, J. Chem. Eng. Data 43, 895 (from memory)",
+                   -238.5, 0.05, [] { return bundled_database().find("Cr^3+")->formation_enthalpy->value / 1e3; }});
   cases.push_back({constants, "pKa of HOCl", "Morris 1966, J. Phys. Chem. 70, 3798 (from memory)", 7.53, 0.01,
                    [] { return -formation_log_k("OCl^-"); }});
   cases.push_back({constants, "Cl2(aq) + H2O = HOCl + H^+ + Cl^-, log K", "Wang & Margerum 1994, Inorg. Chem. 33, 1050 (from memory)",
