@@ -436,6 +436,8 @@ std::vector<ReferenceCase> build_cases() {
   cases.push_back({solids, "−log Ksp hydroxyapatite Ca10(PO4)6(OH)2 at 37 °C", "Dorozhkin 2010, Materials 3, table 3 (read)", 117.2,
                    0.05, [] { return 2.0 * (formation_log_k("hydroxyapatite", 310.15) - formation_log_k("OH^-", 310.15)); },
                    "±0.05, the rounding of the tabulated value; the data's enthalpy is fitted to it with pKw's 25 °C enthalpy"});
+  cases.push_back({metals, "ΔfH° of Cr^3+(aq), kJ/mol", "Ball & Nordstrom 1998, J. Chem. Eng. Data 43, 895 (from memory)",
+                   -238.5, 0.05, [] { return bundled_database().find("Cr^3+")->formation_enthalpy->value / 1e3; }});
   cases.push_back({constants, "pKa of HOCl", "Morris 1966, J. Phys. Chem. 70, 3798 (from memory)", 7.53, 0.01,
                    [] { return -formation_log_k("OCl^-"); }});
   cases.push_back({constants, "Cl2(aq) + H2O = HOCl + H^+ + Cl^-, log K", "Wang & Margerum 1994, Inorg. Chem. 33, 1050 (from memory)",

@@ -38,7 +38,7 @@ enum Result {
   outlet_ph = 0, feed_ph, outlet_temperature, duty, reagent_flow, reagent_ratio, dose_solves, process_gain,
   buffer_capacity, off_gas_flow, dry_solids_flow, sludge_flow, dissolved_fe, dissolved_al, dissolved_zn, dissolved_cu,
   dissolved_ni, dissolved_ca, dissolved_mg, dissolved_f, fe2_oxidised, o2_demand, o2_demand_mass, air_demand,
-  air_demand_volume
+  air_demand_volume, dissolved_cr
 };
 
 constexpr double t25 = 298.15;  // K
@@ -813,8 +813,7 @@ TEST_CASE("neutraliser: dissolved Fe(III), Cu and Ni follow their solubility cur
   // 0.5 mmol/kg each of FeCl3, CuCl2 and NiCl2 in 0.01 mol/kg HCl, dosed with 2 mol/kg NaOH, fresh solids. For a
   // metal whose solid is present, the total dissolved is sum_n 10^(log *Ks + log *beta_n + (n - z) pH) / gamma_n,
   // with the data's constants (thermo/data/metals.yaml; each source from memory) and Davies gammas at the product's
-  // ionic strength; the data hold no chloride complexes of these metals. (Cr(III) cannot pass through the unit yet:
-  // Cr^3+ has no formation enthalpy in the data, so no energy balance; docs/units.md, "Limits".)
+  // ionic strength; the data hold no chloride complexes of these metals. (Cr(III): the next test.)
   const host::Slate slate{{"H2O", "HCl", "NaOH", "FeCl3", "CuCl2", "NiCl2"},
                           {"ferrihydrite", "goethite", "Cu(OH)2(s)", "tenorite", "Ni(OH)2(fresh)", "theophrastite"}};
   const host::StreamState feed = solution(slate, 1.0, {{"HCl", 0.01}, {"FeCl3", 5e-4}, {"CuCl2", 5e-4}, {"NiCl2", 5e-4}});
@@ -870,4 +869,37 @@ TEST_CASE("neutraliser: dissolved Fe(III), Cu and Ni follow their solubility cur
   CHECK(found["Cu"][9.0] < found["Cu"][12.5]);
   CHECK(found["Ni"][10.5] < found["Ni"][9.0]);
   CHECK(found["Ni"][12.5] > found["Ni"][10.5]);
+}
+
+TEST_CASE("neutraliser: dissolved Cr(III) over Cr(OH)3(am) through the unit, amphoteric above pH 10", "[neutraliser]") {
+  // 0.5 mmol/kg CrCl3 in 0.01 mol/kg HCl, dosed with 2 mol/kg NaOH. With Cr(OH)3(am) present the total dissolved
+  // Cr is sum_n 10^(log *Ks + log *beta_n + (n - 3) pH) / gamma_n over Cr^3+, CrOH^2+, Cr(OH)3(aq) and Cr(OH)4^-,
+  // with the data's constants (Rai, Sass & Moore 1987, rai-1987, from memory: log *Ks 9.35, log *beta 1, 3, 4 =
+  // -3.57, -16.19, -27.65; no Cr(OH)2^+) and Davies gammas at the product's ionic strength; no chloride complexes.
+  const host::Slate slate{{"H2O", "HCl", "NaOH", "CrCl3"}, {"Cr(OH)3(am)"}};
+  const host::StreamState feed = solution(slate, 1.0, {{"HCl", 0.01}, {"CrCl3", 5e-4}});
+  const host::StreamState reagent = solution(slate, 1.0, {{"NaOH", 2.0}});
+  const std::vector<std::pair<int, double>> log_beta{{0, 0.0}, {1, -3.57}, {3, -16.19}, {4, -27.65}};
+  constexpr double log_ks = 9.35;
+  constexpr double chromium_molar_mass = 51.9961;  // g/mol, IUPAC atomic weight
+  std::map<double, double> found;                   // pH -> mg/L
+  for (const double ph : {6.5, 8.5, 10.5, 12.5}) {
+    const Dose d = run(at_25c({{"mode", std::string("target_ph")}, {"target_ph", ph}}), slate, feed, reagent);
+    check_mass_balance(d);
+    check_element_balance(d);
+    const thermo::Speciation s = product_state(d);
+    REQUIRE(s.solid_amount[0] > 0.0);  // 0.5 mmol/kg is far above the solubility at every one of these pH
+    double total = 0.0;
+    for (const auto& [n, beta] : log_beta)
+      total += std::pow(10.0, log_ks + beta + (n - 3) * ph) / davies_gamma(3 - n, s.ionic_strength);
+    const double closed_form = total * chromium_molar_mass * 1e3 * thermo::water_density(t25) / 1e3;  // mg/L
+    found[ph] = d.solution.results[dissolved_cr];
+    INFO("Cr(III) at pH " << ph << " (rai-1987): " << found[ph] << " mg/L, closed form " << closed_form);
+    CHECK(found[ph] == Approx(closed_form).epsilon(0.01));
+  }
+  // Least soluble from pH 7 to 10 at the Cr(OH)3(aq) floor, 10^(9.35 - 16.19) mol/kg = 7.5 µg/L; higher at pH 6.5
+  // (CrOH^2+) and re-dissolving as Cr(OH)4^- at pH 12.5.
+  CHECK(found[8.5] == Approx(std::pow(10.0, log_ks - 16.19) * chromium_molar_mass * 1e3).epsilon(0.05));
+  CHECK(found[8.5] < found[6.5]);
+  CHECK(found[12.5] > 5.0 * found[10.5]);
 }

@@ -15,7 +15,7 @@
 namespace protonflow::units {
 
 // The elements whose dissolved concentration the neutraliser reports, in its results' order.
-inline constexpr std::array<std::string_view, 8> reported_elements{"Fe", "Al", "Zn", "Cu", "Ni", "Ca", "Mg", "F"};
+inline constexpr std::array<std::string_view, 9> reported_elements{"Fe", "Al", "Zn", "Cu", "Ni", "Ca", "Mg", "F", "Cr"};
 
 class LiquorAnalysis {
  public:

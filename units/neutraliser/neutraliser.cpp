@@ -292,7 +292,8 @@ void Neutraliser::solve(std::span<const unit::InletState> inlets, std::span<unit
   results.set("dry_solids_flow", dry_solids);
   results.set("sludge_flow", dry_solids / sludge_dry_solids_);
   static constexpr std::array<const char*, reported_elements.size()> dissolved{
-      "dissolved_fe", "dissolved_al", "dissolved_zn", "dissolved_cu", "dissolved_ni", "dissolved_ca", "dissolved_mg", "dissolved_f"};
+      "dissolved_fe", "dissolved_al", "dissolved_zn", "dissolved_cu", "dissolved_ni", "dissolved_ca", "dissolved_mg", "dissolved_f",
+      "dissolved_cr"};
   for (std::size_t e = 0; e < reported_elements.size(); ++e) {
     results.set(dissolved[e], analysis_.dissolved_mg_per_litre(e, out).value_or(nan()));
   }

@@ -106,7 +106,8 @@ class Neutraliser {
       unit::result("o2_demand_mass", "kg/h", "the same O2 by mass"),
       unit::result("air_demand", "mol/s", "air carrying that O2 at 20.9476 mol % (U.S. Standard Atmosphere 1976), "
                                           "all of it consumed: the blower's air is this over the O2 transfer efficiency"),
-      unit::result("air_demand_volume", "m3/h", "the same air as normal volume, ideal gas at 0 °C and 101.325 kPa")};
+      unit::result("air_demand_volume", "m3/h", "the same air as normal volume, ideal gas at 0 °C and 101.325 kPa"),
+      unit::result("dissolved_cr", "mg/L", "chromium(III) still dissolved; NaN where the slate has none")};
   static constexpr std::array series{
       unit::series("titration", "reagent_ratio", "1", "pH", "1", 10001,
                    "pH of feed and reagent at equilibrium at the outlet temperature, against kg of reagent per kg of feed")};
