@@ -1,6 +1,7 @@
 #include <catch2/catch.hpp>
 
 #include <cmath>
+#include <random>
 
 #include "protonflow/thermo/chemical_system.hpp"
 #include "protonflow/thermo/constants.hpp"
@@ -87,4 +88,32 @@ TEST_CASE("near boiling, the adiabatic solve brackets the temperatures where a l
   CHECK(found.temperature == Approx(373.12).margin(0.05));
   CHECK(found.water_mass < 0.7);
   CHECK_THROWS_WITH(solve_at_enthalpy(solver, h + 3e6, 101325.0, amounts, {}, found), Catch::Contains("boils"));
+}
+
+TEST_CASE("from any estimate, the adiabatic solve finds the temperature the whole-range bracket finds") {
+  // Random compositions, target temperatures, estimates anywhere in the data's range and heat
+  // capacities off by up to a factor of 10 either way, or none: the search from the estimate must
+  // land within the 1e-9 K bracket of the search over the whole range.
+  const ChemicalSystem system(database(), {"H2O", "H2SO4", "NaOH", "NH3", "CO2"});
+  EquilibriumSolver solver(system);
+  std::mt19937 random(20261202);
+  std::uniform_real_distribution<double> unit(0.0, 1.0);
+  const double t_min = system.minimum_temperature(), t_max = system.maximum_temperature();
+  for (int trial = 0; trial < 60; ++trial) {
+    const std::vector<double> amounts{kilogram_of_water, 0.1 * unit(random), 0.1 * unit(random), 0.05 * unit(random),
+                                      0.02 * unit(random)};
+    const double target_t = 275.0 + 95.0 * unit(random);
+    Speciation state;
+    solver.solve(target_t, 101325.0, amounts, {}, state);
+    const double h = state_enthalpy(system, state);
+    Speciation whole, near;
+    solve_at_enthalpy(solver, h, 101325.0, amounts, {}, whole);
+    TemperatureEstimate estimate;
+    estimate.temperature = t_min + (t_max - t_min) * unit(random);
+    if (trial % 3 != 0) estimate.heat_capacity = 4180.0 * std::pow(10.0, 2.0 * unit(random) - 1.0);  // J/K, 1 kg of water
+    solve_at_enthalpy(solver, h, 101325.0, amounts, {}, near, nullptr, estimate);
+    INFO("trial " << trial << ": target " << target_t << " K, estimate " << estimate.temperature << " K");
+    CHECK(whole.temperature == Approx(target_t).epsilon(0.0).margin(1e-6));
+    CHECK(near.temperature == Approx(whole.temperature).epsilon(0.0).margin(2e-9));
+  }
 }

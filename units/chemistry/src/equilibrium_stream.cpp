@@ -60,7 +60,14 @@ double EquilibriumStream::mismatch_at(double temperature, double pressure, doubl
 void EquilibriumStream::equilibrate_at_enthalpy(double target, double pressure, const std::string& what,
                                                 pfu_status out_of_range_status) {
   try {
-    thermo::solve_at_enthalpy(solver_, target, pressure, totals_, {}, state_, excess_.get());
+    // The search starts from this stream's last state, its step sized by the last heat capacity
+    // found here scaled to the present amounts.
+    double amount = 0.0;
+    for (const double total : totals_) amount += std::abs(total);
+    thermo::TemperatureEstimate estimate;
+    if (!state_.molality.empty()) estimate.temperature = state_.temperature;
+    estimate.heat_capacity = heat_capacity_per_amount_ * amount;
+    thermo::solve_at_enthalpy(solver_, target, pressure, totals_, {}, state_, excess_.get(), estimate);
     const double low = system_->minimum_temperature();
     const double high = system_->maximum_temperature();
     double best_t = state_.temperature;
@@ -68,6 +75,7 @@ void EquilibriumStream::equilibrate_at_enthalpy(double target, double pressure, 
     // Heat capacity of the stream from a 1 mK step, kept inside the data's range.
     const double step = best_t + 1e-3 <= high ? 1e-3 : -1e-3;
     const double heat_capacity = (mismatch_at(best_t + step, pressure, target) - best_miss) / step;  // W/K
+    if (heat_capacity > 0.0 && amount > 0.0) heat_capacity_per_amount_ = heat_capacity / amount;
     double slope = heat_capacity;
     for (int i = 0; i < 4 && best_miss != 0.0 && slope > 0.0 && std::isfinite(slope); ++i) {
       const double next_t = std::clamp(best_t - best_miss / slope, low, high);

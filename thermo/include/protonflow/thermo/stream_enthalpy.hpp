@@ -2,6 +2,7 @@
 // problem every unit needs). Model and its limits: docs/energy.md.
 #pragma once
 
+#include <limits>
 #include <span>
 
 #include "protonflow/thermo/chemical_system.hpp"
@@ -22,12 +23,22 @@ class ExcessEnthalpyModel {
 // state's temperature. Throws ThermoError(bad_data) naming a present species with no enthalpy data.
 double state_enthalpy(const ChemicalSystem& system, const Speciation& state, const ExcessEnthalpyModel* excess = nullptr);
 
+// Where the search for a temperature starts: a temperature near the answer (K; NaN for none) and,
+// where known, the heat capacity of the state (J/K; NaN for none), which sizes the first step.
+struct TemperatureEstimate {
+  double temperature = std::numeric_limits<double>::quiet_NaN();
+  double heat_capacity = std::numeric_limits<double>::quiet_NaN();
+};
+
 // Finds the temperature at which the equilibrium state of these amounts has the given enthalpy (J)
 // at pressure (Pa), solving speciation at every trial temperature (TOMS 748 on T, each solve warm
-// started). Throws ThermoError(out_of_range) when the enthalpy lies outside the data's temperature
-// range, ConvergenceError when a speciation fails.
+// started). With an estimate the root is bracketed from there, the step growing until H − target
+// changes sign; without one, or where that search meets the end of the data's range or a state that
+// does not solve, the bracket is the whole range. Either way T is bracketed to 1e-9 K. Throws
+// ThermoError(out_of_range) when the enthalpy lies outside the data's temperature range,
+// ConvergenceError when a speciation fails.
 void solve_at_enthalpy(EquilibriumSolver& solver, double enthalpy, double pressure, std::span<const double> amounts,
                        std::span<const double> open_gas_pressures, Speciation& out,
-                       const ExcessEnthalpyModel* excess = nullptr);
+                       const ExcessEnthalpyModel* excess = nullptr, TemperatureEstimate estimate = {});
 
 }  // namespace protonflow::thermo

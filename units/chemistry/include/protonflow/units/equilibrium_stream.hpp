@@ -8,6 +8,7 @@
 
 #include <protonflow/thermo/pitzer_enthalpy.hpp>
 
+#include <limits>
 #include <memory>
 
 #include <protonflow/unit_module.hpp>
@@ -61,6 +62,8 @@ class EquilibriumStream {
   std::vector<double> totals_;        // mol/s per component, all phases
   thermo::Speciation state_;
   double enthalpy_ = 0.0;             // J
+  // J/K per mol of totals at the last state found from an enthalpy: sizes the next search's step.
+  double heat_capacity_per_amount_ = std::numeric_limits<double>::quiet_NaN();
 };
 
 }  // namespace protonflow::units
