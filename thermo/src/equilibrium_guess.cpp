@@ -20,13 +20,18 @@ using detail::safe_exp;
 // (docs/equilibrium.md), which keeps the problem convex, and the phase's amount follows from the
 // pivots' mass balances.
 void EquilibriumSolver::Impl::ideal_guess(double* x) {
+  // How closely each pass meets its ideal balances (relative to each total). A pass before the last
+  // only starts the next, whose activity corrections move the balances by far more; the last only
+  // has to land in the basin of Newton on the full problem, which finishes it (docs/equilibrium.md).
+  constexpr double early_pass_tolerance = 1e-1;
+  constexpr double last_pass_tolerance = 1e-4;
   // Up to three passes: ideal first, then with the activity coefficients and water activity of the
   // previous pass as conditional constants, which brings a concentrated solution's guess close.
   std::fill(guess_ln_gamma.begin(), guess_ln_gamma.end(), 0.0);
   double ln_water_activity = 0.0;
   const int passes = system->options().activity == ActivityModelKind::ideal ? 1 : 3;
   for (int pass = 0; pass < passes; ++pass) {
-    guess_pass(x, ln_water_activity, pass == 0);
+    guess_pass(x, ln_water_activity, pass == 0, pass + 1 == passes ? last_pass_tolerance : early_pass_tolerance);
     if (pass + 1 == passes) break;
     evaluate_molalities(x);
     std::copy(evaluation.ln_gamma.begin(), evaluation.ln_gamma.end(), guess_ln_gamma.begin());
@@ -34,7 +39,7 @@ void EquilibriumSolver::Impl::ideal_guess(double* x) {
   }
 }
 
-void EquilibriumSolver::Impl::guess_pass(double* x, double ln_water_activity, bool first) {
+void EquilibriumSolver::Impl::guess_pass(double* x, double ln_water_activity, bool first, double tolerance) {
   const double water_guess = water_total * constants::water_molar_mass;
   std::copy(stoichiometry.begin(), stoichiometry.end(), guess_stoichiometry.begin());
   // Conditional constants: ln m_i = ln K'_i + Σ_b ν_ib ln m_b with the γ and a_w of the last pass.
@@ -125,7 +130,7 @@ void EquilibriumSolver::Impl::guess_pass(double* x, double ln_water_activity, bo
   // Swapped-out and absent basis species are not variables, but solutes built from them stay in.
   detail::GuessProblem problem{n, nb, guess_stoichiometry, guess_ln_k, std::span<const char>(guess_active.data(), n),
                                guess_totals, std::span<const char>(active.data(), n)};
-  detail::minimise_ideal_dual(problem, guess_x, 100);
+  detail::minimise_ideal_dual(problem, guess_x, 100, tolerance);
   // Back-substitute the pivots, last swap first.
   for (std::size_t f = swapped.size(); f-- > 0;) {
     const std::size_t pivot = swapped[f].pivot;

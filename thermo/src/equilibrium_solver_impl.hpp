@@ -65,7 +65,7 @@ struct EquilibriumSolver::Impl {
   void predict_precipitation(std::size_t allowed_index);
   void update_log_k(double temperature, double pressure);
   void ideal_guess(double* u);  // for the current set of present phases
-  void guess_pass(double* u, double ln_water_activity, bool first);
+  void guess_pass(double* u, double ln_water_activity, bool first, double tolerance);
   bool solve_current_set();
   bool replace_rival(std::size_t added);
   int run_kinsol(int strategy);

@@ -35,27 +35,42 @@ double exponent_of(const GuessProblem& p, std::span<const double> x, std::size_t
   return exponent;
 }
 
-double molality_of(const GuessProblem& p, std::span<const double> x, std::size_t i) {
-  return std::exp(std::clamp(exponent_of(p, x, i), lowest_log, highest_log));
-}
-
-// G(x) = Σ_i m_i − Σ_b t_b x_b over the variables; +∞ where a molality would leave the finite range,
-// so the line search never steps into the region where exp() is clamped and G no longer convex.
-double dual(const GuessProblem& p, std::span<const double> x, const std::vector<std::size_t>& variables) {
-  double value = 0.0;
-  for (std::size_t i = 0; i < p.solute_count; ++i) {
-    if (!p.present[i]) continue;
-    const double exponent = exponent_of(p, x, i);
-    if (exponent > highest_log) return std::numeric_limits<double>::infinity();
-    value += std::exp(std::max(exponent, lowest_log));
+// Newton on G moves a molality that starts far above its balance down by only about a factor e per
+// step (the exponential dominates the step), e.g. hydrogencarbonate at 1e3 times the carbon total
+// when carbonate starts at that total and H^+ at 1e-7. Two Gauss–Seidel sweeps over the variables
+// other than H^+ first bring each balance's positive part Σ_i ν_ib⁺ m_i to within a factor e of t_b,
+// raising no molality above e^10; a start already that close is left as it is. Only the start
+// changes: the minimisation after it is the same.
+void balance_start(const GuessProblem& p, std::span<double> x, const std::vector<std::size_t>& variables) {
+  for (int sweep = 0; sweep < 2; ++sweep) {
+    bool moved = false;
+    for (std::size_t b : variables) {
+      const double t = p.basis_total[b];
+      if (b == 0 || !(t > 0.0)) continue;
+      double held = 0.0;  // Σ_i ν_ib⁺ m_i
+      double largest_coefficient = 0.0;
+      double room = std::numeric_limits<double>::infinity();  // how far x_b may rise
+      for (std::size_t i = 0; i < p.solute_count; ++i) {
+        const double nu = p.stoichiometry[i * p.basis_count + b];
+        if (!p.present[i] || nu <= 0.0) continue;
+        const double exponent = exponent_of(p, x, i);
+        held += nu * std::exp(std::clamp(exponent, lowest_log, highest_log));
+        largest_coefficient = std::max(largest_coefficient, nu);
+        room = std::min(room, (10.0 - exponent) / nu);
+      }
+      if (!(held > 0.0)) continue;
+      const double excess = std::log(held / t);
+      if (std::abs(excess) <= 1.0) continue;
+      x[b] += std::min(-excess / largest_coefficient, std::max(room, 0.0));
+      moved = true;
+    }
+    if (!moved) return;
   }
-  for (std::size_t b : variables) value -= p.basis_total[b] * x[b];
-  return value;
 }
 
 }  // namespace
 
-void minimise_ideal_dual(const GuessProblem& p, std::span<double> x, int iterations) {
+void minimise_ideal_dual(const GuessProblem& p, std::span<double> x, int iterations, double tolerance) {
   const std::vector<std::size_t> variables = variables_of(p);
   const auto k = static_cast<Eigen::Index>(variables.size());
   if (k == 0) return;
@@ -74,6 +89,7 @@ void minimise_ideal_dual(const GuessProblem& p, std::span<double> x, int iterati
   }
   for (std::size_t b : variables)
     if (b != 0) x[b] -= shift;
+  balance_start(p, x, variables);
   // The non-zero coefficients of each present solute on the variables: the gradient Σ_i ν_i m_i
   // and the Hessian Σ_i ν_i ν_iᵀ m_i are sums over these alone.
   struct Entry {
@@ -90,9 +106,36 @@ void minimise_ideal_dual(const GuessProblem& p, std::span<double> x, int iterati
     }
     first_entry.push_back(entries.size());
   }
-  std::vector<std::size_t> present_solutes;
-  for (std::size_t i = 0; i < p.solute_count; ++i)
-    if (p.present[i]) present_solutes.push_back(i);
+  // Each present solute's exponent is a constant (ln K and the basis species that are not variables,
+  // which stay where they are) plus its entries: computed over those alone.
+  std::vector<double> offset;
+  for (std::size_t i = 0; i < p.solute_count; ++i) {
+    if (!p.present[i]) continue;
+    double constant = p.ln_k[i];
+    for (std::size_t b = 0; b < p.basis_count; ++b) {
+      const double nu = p.stoichiometry[i * p.basis_count + b];
+      if (nu != 0.0 && std::find(variables.begin(), variables.end(), b) == variables.end()) constant += nu * x[b];
+    }
+    offset.push_back(constant);
+  }
+  const auto exponent_at = [&](std::span<const double> at, std::size_t j) {
+    double exponent = offset[j];
+    for (std::size_t e = first_entry[j]; e < first_entry[j + 1]; ++e)
+      exponent += entries[e].coefficient * at[variables[static_cast<std::size_t>(entries[e].variable)]];
+    return exponent;
+  };
+  // G(x) = Σ_i m_i − Σ_b t_b x_b over the variables; +∞ where a molality would leave the finite range,
+  // so the line search never steps into the region where exp() is clamped and G no longer convex.
+  const auto dual = [&](std::span<const double> at) {
+    double value = 0.0;
+    for (std::size_t j = 0; j < offset.size(); ++j) {
+      const double exponent = exponent_at(at, j);
+      if (exponent > highest_log) return std::numeric_limits<double>::infinity();
+      value += std::exp(std::max(exponent, lowest_log));
+    }
+    for (std::size_t b : variables) value -= p.basis_total[b] * at[b];
+    return value;
+  };
   Eigen::VectorXd gradient(k), step(k);
   Eigen::MatrixXd hessian(k, k);
   std::vector<double> trial(x.begin(), x.end());
@@ -101,8 +144,8 @@ void minimise_ideal_dual(const GuessProblem& p, std::span<double> x, int iterati
     hessian.setZero();
     double size = 0.0;  // Σ |ν| m: the scale the gradient is measured against
     double magnitude = 0.0;  // Σ m + Σ |t x|: the scale of G's rounding error
-    for (std::size_t j = 0; j < present_solutes.size(); ++j) {
-      const double m = molality_of(p, x, present_solutes[j]);
+    for (std::size_t j = 0; j < offset.size(); ++j) {
+      const double m = std::exp(std::clamp(exponent_at(x, j), lowest_log, highest_log));
       magnitude += m;
       for (std::size_t e = first_entry[j]; e < first_entry[j + 1]; ++e) {
         const double nu_m = entries[e].coefficient * m;
@@ -120,7 +163,7 @@ void minimise_ideal_dual(const GuessProblem& p, std::span<double> x, int iterati
       gradient[r] -= t;
       largest = std::max(largest, std::abs(gradient[r]) / std::max(std::abs(t), 1e-300));
     }
-    if (largest < 1e-8) return;  // close enough for a start: Newton on the full problem finishes
+    if (largest < tolerance) return;  // close enough for a start: Newton on the full problem finishes
     // A tiny ridge keeps the factorisation defined where a variable's species have all but vanished.
     hessian.diagonal().array() += 1e-14 * std::max(size, 1e-300);
     step = hessian.ldlt().solve(-gradient);
@@ -138,7 +181,7 @@ void minimise_ideal_dual(const GuessProblem& p, std::span<double> x, int iterati
       return;
     }
     // Armijo backtracking on G, which is convex: any descent direction admits a decreasing step.
-    const double g0 = dual(p, x, variables);
+    const double g0 = dual(x);
     double lambda = 1.0;
     bool moved = false;
     for (int halving = 0; halving < 40; ++halving, lambda *= 0.5) {
@@ -147,7 +190,7 @@ void minimise_ideal_dual(const GuessProblem& p, std::span<double> x, int iterati
         const std::size_t b = variables[static_cast<std::size_t>(r)];
         trial[b] = std::clamp(x[b] + lambda * step[r], lowest_log, highest_log);
       }
-      if (dual(p, trial, variables) <= g0 + 1e-4 * lambda * slope) {
+      if (dual(trial) <= g0 + 1e-4 * lambda * slope) {
         moved = true;
         break;
       }

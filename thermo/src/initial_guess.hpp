@@ -21,7 +21,9 @@ struct GuessProblem {
 // G(x) = Σ_i m_i(x) − Σ_b t_b x_b, whose Hessian Σ_i ν_i ν_iᵀ m_i is positive semi-definite (the dual
 // of the ideal Gibbs-energy minimisation; Smith & Missen 1982). Newton on G with an Armijo
 // backtracking line search on G itself converges from any start where a minimum exists. x holds the
-// start on entry (any finite values for swept species) and the minimiser on return.
-void minimise_ideal_dual(const GuessProblem& problem, std::span<double> x, int iterations);
+// start on entry (any finite values for swept species) and the minimiser on return: the first point
+// where every balance's residual |Σ_i ν_ib m_i − t_b| is below tolerance · |t_b|, or where Newton's
+// predicted decrease falls below G's rounding error.
+void minimise_ideal_dual(const GuessProblem& problem, std::span<double> x, int iterations, double tolerance);
 
 }  // namespace protonflow::thermo::detail
