@@ -39,7 +39,6 @@ class PhasePlacement {
     std::string unplaced_reason;            // why it stays in the aqueous row, when it must
   };
 
-  static std::vector<Combination> combinations_for(const thermo::ChemicalSystem& system, const std::vector<double>& target);
   void place(const Placement& placement, double amount, std::span<const double> totals, unit::OutletState& outlet,
              unit::Warnings& warnings);
 
