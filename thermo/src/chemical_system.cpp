@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <limits>
+#include <optional>
 #include <fmt/format.h>
 #include <set>
 
@@ -60,7 +61,9 @@ ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string
   };
   // A constant fitted with the Pitzer parameters (pK of HSO4^- of Clegg, Rard & Pitzer 1994) replaces
   // the species data's under that model: the parameters mean something only with their own constant.
-  const auto pitzer_log_k = [](const Species& s) {
+  // Its enthalpy and heat capacity go with it (below): the model's heats of dilution were fitted with
+  // the ΔrH° and ΔrCp° its K(T) implies, not with the species data's.
+  const auto pitzer_log_k = [](const Species& s) -> std::optional<TemperatureFunction> {
     for (const PitzerEquilibriumConstant& k : bundled_pitzer_parameters().equilibrium_constants) {
       if (k.species != s.name) continue;
       auto data = s.reaction, fitted = k.reaction;
@@ -72,7 +75,7 @@ ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string
                                     s.name));
       return k.log_k;
     }
-    return s.log_k;
+    return std::nullopt;
   };
   const auto add_solute = [&](const Species& s) {
     Solute solute;
@@ -88,9 +91,18 @@ ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string
     } else {
       spread_reaction(s, solute.stoichiometry, solute.water_coefficient);
       solute.log_k = s.log_k;
-      if (options_.activity == ActivityModelKind::pitzer) solute.log_k = pitzer_log_k(s);
     }
-    const detail::StandardEnthalpy h = detail::standard_enthalpy(database, s);
+    Species with_model_constant = s;
+    if (!s.is_basis && options_.activity == ActivityModelKind::pitzer)
+      if (const auto fitted = pitzer_log_k(s)) {
+        solute.log_k = *fitted;
+        // H° and Cp° from the basis species and the fitted K(T), as for a species without its own:
+        // HSO4^- then sits 0.82 kJ/mol above the NBS value, at Clegg, Rard & Pitzer's eq. 21 (docs/activity.md).
+        with_model_constant.log_k = *fitted;
+        with_model_constant.formation_enthalpy.reset();
+        with_model_constant.heat_capacity.reset();
+      }
+    const detail::StandardEnthalpy h = detail::standard_enthalpy(database, with_model_constant);
     solute.reference_enthalpy = h.at_reference;
     solute.heat_capacity = h.heat_capacity;
     if (solute.charge != 0 && solute.ion_size_angstrom <= 0.0)
