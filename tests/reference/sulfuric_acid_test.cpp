@@ -141,3 +141,34 @@ TEST_CASE("H2SO4 with the Pitzer model above 55 °C: the parameters held at 328.
     CHECK(engine.osmotic == Approx(published.osmotic).epsilon(0.01));
   }
 }
+
+TEST_CASE("H2SO4 with the Pitzer model: HSO4^- carries the enthalpy and heat capacity of the model's own K2(T)") {
+  // Clegg, Rard & Pitzer fitted their temperature functions to heats of dilution together with eq. 21;
+  // the engine's heats mean the same only with ΔrH° = RT² d ln K2/dT of that equation (−22.76 kJ/mol
+  // for HSO4^- → H^+ + SO4^2- at 25 °C, by central differences of eq. 21 typed above), not with the
+  // NBS difference (−909.27 + 887.34 = −21.93 kJ/mol, nbs-1982), which the other models keep with
+  // their own van 't Hoff constant. Likewise ΔrCp° = dΔrH°/dT of eq. 21.
+  const auto dissociation_enthalpy = [](double t) {
+    const double h = 0.01;
+    return constants::gas_constant * constants::ln10 * t * t * (log10_k2(t + h) - log10_k2(t - h)) / (2 * h);
+  };
+  const double t = 298.15, h = 0.01;
+  const double enthalpy = dissociation_enthalpy(t);
+  const double heat_capacity = (dissociation_enthalpy(t + h) - dissociation_enthalpy(t - h)) / (2 * h);
+  const auto solute = [](const protonflow::reference::ProbeResult& r, const char* name) {
+    for (const auto& s : r.system.solutes())
+      if (s.name == name) return s;
+    FAIL("no " << name);
+    return protonflow::thermo::Solute{};
+  };
+  const auto pitzer = protonflow::reference::solve_recipe({{"H2SO4", 0.1}}, ActivityModelKind::pitzer);
+  const auto h_ion = solute(pitzer, "H^+"), sulfate = solute(pitzer, "SO4^2-"), bisulfate = solute(pitzer, "HSO4^-");
+  INFO("ΔrH° " << enthalpy << " J/mol, ΔrCp° " << heat_capacity << " J/(mol K)");
+  // Tolerance: the five-term recast of eq. 21 (within 1.6e-4 in log10 K, 6e-5 at 298.15 K) moves its slope by a few J/mol.
+  CHECK(h_ion.reference_enthalpy + sulfate.reference_enthalpy - bisulfate.reference_enthalpy == Approx(enthalpy).margin(30.0));
+  CHECK(h_ion.heat_capacity + sulfate.heat_capacity - bisulfate.heat_capacity == Approx(heat_capacity).margin(5.0));
+  // Davies keeps the species data's NBS value and its van 't Hoff constant.
+  const auto davies = protonflow::reference::solve_recipe({{"H2SO4", 0.1}}, ActivityModelKind::davies);
+  CHECK(solute(davies, "SO4^2-").reference_enthalpy - solute(davies, "HSO4^-").reference_enthalpy ==
+        Approx(-21.93e3).margin(1.0));  // Source: nbs-1982
+}
