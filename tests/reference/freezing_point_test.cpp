@@ -1,0 +1,43 @@
+// The published side of the freezing-point rows of reference_cases.cpp: the osmotic coefficients of
+// NaCl and KCl at their freezing points, from the CRC Handbook's freezing-point depressions (concentrative
+// properties of aqueous solutions, read) and the Gibbs energies of ice Ih (IAPWS R10-06) and liquid
+// water (IAPWS-95) of python3-iapws, ln a_w = (g_ice − g_liquid)/(R T) at 0.101325 MPa.
+#include <catch2/catch.hpp>
+#include <fmt/format.h>
+#include <string>
+#include <tuple>
+
+#include "python_reference.hpp"
+#include "reference_cases.hpp"
+
+namespace {
+
+using protonflow::reference::reference_cases;
+using protonflow::reference::run_python;
+
+TEST_CASE("φ of NaCl and KCl at their freezing points: the rows' published values are what python3-iapws gives") {
+  // (salt, mol/kg, depression in K): CRC Handbook, concentrative properties, NaCl 5–25 wt %, KCl 5–13 wt %
+  for (const auto& [salt, molality, depression] :
+       {std::tuple{"NaCl", 0.901, 3.05}, std::tuple{"NaCl", 1.901, 6.56}, std::tuple{"NaCl", 3.02, 10.89},
+        std::tuple{"NaCl", 4.278, 16.46}, std::tuple{"NaCl", 5.111, 20.67}, std::tuple{"KCl", 0.706, 2.32},
+        std::tuple{"KCl", 1.49, 4.81}, std::tuple{"KCl", 2.004, 6.45}}) {
+    const auto values = run_python(fmt::format(
+        "import warnings\nwarnings.simplefilter('ignore')\n"
+        "from iapws._iapws import _Ice\nfrom iapws import IAPWS95\n"
+        "T = 273.15 - {1}\nw = IAPWS95(T=T, P=0.101325)\n"
+        "ln_aw = (_Ice(T, 0.101325)['g'] - (w.h - T * w.s)) / (0.46151805 * T)\n"
+        "print(-ln_aw / (2 * 0.018015268 * {0}))\n",
+        molality, depression));
+    REQUIRE(values.size() == 1);
+    const std::string quantity = fmt::format("φ {} {:g} mol/kg at its freezing point, −{:g} °C", salt, molality, depression);
+    bool found = false;
+    for (const auto& c : reference_cases())
+      if (c.quantity == quantity) {
+        found = true;
+        CHECK(c.published == Approx(values[0]).epsilon(2e-5));
+      }
+    CHECK(found);
+  }
+}
+
+}  // namespace

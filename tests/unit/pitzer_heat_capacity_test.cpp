@@ -1,0 +1,86 @@
+// The relative heat capacity of the Pitzer model, J = ∂L/∂T at constant molalities: what the engine's
+// L(T) carries (docs/energy.md) against Pitzer's (1991, ch. 3) closed form for a single salt,
+//   J_φ = ν|z_M z_X| (A_J / 2b) ln(1 + b√I) − 2 ν_M ν_X R [T² (m B'' + m² ν_M z_M C'') + 2T (m B' + m² ν_M z_M C')],
+// with B = β⁰ + β¹ g(α√I), C = Cφ/(2√|z_M z_X|), primes the temperature derivatives of the parameter
+// file, and A_J = ∂A_H/∂T, A_H = 4 R T² ∂A_φ/∂T from the engine's water properties.
+#include <catch2/catch.hpp>
+#include <cmath>
+#include <vector>
+
+#include "protonflow/thermo/activity_pitzer.hpp"
+#include "protonflow/thermo/constants.hpp"
+#include "protonflow/thermo/water_properties.hpp"
+
+namespace {
+
+using namespace protonflow::thermo;
+
+double a_phi(double temperature) {
+  return debye_huckel_parameters(temperature, constants::standard_atmosphere).a * constants::ln10 / 3.0;
+}
+
+// A_J = ∂/∂T (4 R T² ∂A_φ/∂T), by central differences of the engine's A_φ.
+double a_j(double temperature) {
+  const double h = 0.5;
+  const auto a_h = [](double t) {
+    const double d = 0.05;
+    return 4.0 * constants::gas_constant * t * t * (a_phi(t + d) - a_phi(t - d)) / (2.0 * d);
+  };
+  return (a_h(temperature + h) - a_h(temperature - h)) / (2.0 * h);
+}
+
+const PitzerBinary& binary(const std::string& cation, const std::string& anion) {
+  for (const PitzerBinary& b : bundled_pitzer_parameters().binary)
+    if (b.cation == cation && b.anion == anion) return b;
+  FAIL("no " << cation << "–" << anion << " pair in the parameter file");
+  throw;  // unreachable: FAIL throws
+}
+
+// J_φ by Pitzer's closed form, for a 1:1 salt at 298.15 K (where the Taylor form's derivatives are the file's).
+double closed_form_j_phi(const PitzerBinary& b, double m) {
+  constexpr double t = 298.15, bb = 1.2;
+  const double r = constants::gas_constant;
+  const double x = b.alpha1 * std::sqrt(m);
+  const double g = 2.0 * (1.0 - (1.0 + x) * std::exp(-x)) / (x * x);
+  const double b1 = b.beta0.d_dT + b.beta1.d_dT * g;
+  const double b2 = b.beta0.d2_dT2 + b.beta1.d2_dT2 * g;
+  const double c1 = b.c_phi.d_dT / 2.0, c2 = b.c_phi.d2_dT2 / 2.0;
+  return 2.0 * a_j(t) / (2.0 * bb) * std::log1p(bb * std::sqrt(m)) -
+         2.0 * r * (t * t * (m * b2 + m * m * c2) + 2.0 * t * (m * b1 + m * m * c1));
+}
+
+// J_φ of the engine: ∂L_φ/∂T by a central difference of the model's own relative enthalpy.
+double engine_j_phi(const char* cation, const char* anion, double m) {
+  SoluteProperties p;
+  p.charge = {1, -1};
+  p.ion_size_angstrom = {4, 3};
+  p.name = {cation, anion};
+  const PitzerModel model(p, bundled_pitzer_parameters());
+  const std::vector<double> molality{m, m};
+  const double h = 0.5;
+  return (model.relative_enthalpy(298.15 + h, constants::standard_atmosphere, molality) -
+          model.relative_enthalpy(298.15 - h, constants::standard_atmosphere, molality)) /
+         (2.0 * h) / m;
+}
+
+TEST_CASE("Pitzer relative heat capacity: the engine's ∂L/∂T is Pitzer's closed form with the file's derivatives") {
+  for (const auto& [cation, anion] : {std::pair{"Na^+", "Cl^-"}, std::pair{"H^+", "Cl^-"}, std::pair{"H^+", "NO3^-"}})
+    for (const double m : {0.1, 1.0, 3.0, 6.0}) {
+      INFO(cation << anion << " at " << m << " mol/kg");
+      CHECK(engine_j_phi(cation, anion, m) == Approx(closed_form_j_phi(binary(cation, anion), m)).epsilon(1e-4).margin(1e-3));
+    }
+}
+
+TEST_CASE("NaCl carries its second temperature derivatives into the relative heat capacity") {
+  // Carroll, Craig & Wolery (2005) give ∂²β/∂T² for NaCl: without them J_φ would be the first-derivative
+  // part alone; with them it rises by −R T² (2m B'' + m² Cφ''), about 24 J/(K mol) at 1 mol/kg.
+  const PitzerBinary& nacl = binary("Na^+", "Cl^-");
+  REQUIRE(nacl.beta0.d2_dT2 != 0.0);
+  PitzerBinary first_only = nacl;
+  first_only.beta0.d2_dT2 = first_only.beta1.d2_dT2 = first_only.c_phi.d2_dT2 = 0.0;
+  const double with = closed_form_j_phi(nacl, 1.0), without = closed_form_j_phi(first_only, 1.0);
+  CHECK(engine_j_phi("Na^+", "Cl^-", 1.0) == Approx(with).epsilon(1e-4));
+  CHECK(with - without == Approx(23.6).margin(0.5));
+}
+
+}  // namespace
