@@ -83,6 +83,7 @@ BinaryData make_data() {
       53.35,      // Cp° HNO3(g), J/(mol K): nbs-1982 (from memory)
       heat_of_solution_table(),
       heat_capacity_table(),
+      std::nullopt,  // no heat capacities away from 25 °C read: Δcp independent of T
       density_table(),
       solute_expansion,
       [](double x) { return isotherm().ln_water_activity(x); },
