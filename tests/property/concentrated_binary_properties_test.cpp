@@ -1,8 +1,8 @@
 // Random mixes of two feeds of one concentrated binary (thermo/concentrated_binary.hpp) with a heater
 // duty, as an acid mixer makes them: every outlet is found with its solute and energy balances closed
-// to round-off, or refused with a BinaryRangeError naming the range — never another error. And the
-// volatile acids' water and acid activities obey Gibbs–Duhem at random strengths and temperatures. (A run of
-// 20,000 such cases: 44 % boil, 6 % are refused, the largest energy residual 6e-14 relative.)
+// to round-off, or refused with a BinaryRangeError naming the range — never another error. (A run of
+// 20,000 such cases: 44 % boil, 6 % are refused, the largest energy residual 6e-14 relative.) And the
+// volatile acids' water and acid activities obey Gibbs–Duhem at random strengths and temperatures.
 #include <rapidcheck.h>
 #include <rapidcheck/catch.h>
 
