@@ -654,24 +654,18 @@ std::vector<ReferenceCase> build_cases() {
                      108.6, 2.0, [hydrochloric] { return binary_azeotrope(hydrochloric, 0.15, 0.25).second; }});
     cases.push_back({binaries, "HNO3 maximum-boiling azeotrope at 1 atm, wt %", boiling_read, 68.0, 1.0,
                      [nitric] { return 100 * binary_azeotrope(nitric, 0.55, 0.70).first; },
-                     "HNO3 azeotrope composition: fitted, not predicted. No HNO3 activities above 3 mol/kg were read, "
-                     "and the one slope of ln γ± beyond 3 mol/kg is chosen to put the azeotrope here."});
-    cases.push_back({binaries, "HNO3 maximum-boiling azeotrope at 1 atm, °C", boiling_read, 120.5, 8.0,
-                     [nitric] { return binary_azeotrope(nitric, 0.55, 0.70).second; },
-                     "HNO3 azeotrope temperature: the cause is the activity beyond 3 mol/kg. There ln γ± continues "
-                     "along one fitted slope (the azeotrope is at 34 mol/kg), which fixes the composition but not the "
-                     "pressures: at 68 wt % and 120.5 °C the water and HNO3 partial pressures come out 24 % and 18 % "
-                     "low (79 kPa in all), which one slope cannot mend (Gibbs-Duhem ties a_w to γ±). Published 2 K; held at 8 K until Clegg & "
-                     "Brimblecombe's (1990) HNO3 parameters or Davis & De Bruin's (1964) activities are read."});
+                     "HNO3 azeotrope: a calibration, not a check. No HNO3 activities above 3 mol/kg were read; "
+                     "beyond 3 mol/kg ln γ± leaves the table with its own slope and bends smoothly to a final slope, "
+                     "and those two parameters are fitted to put the azeotrope at 68.0 wt % and 120.5 °C. Water and "
+                     "acid activities still come from the one ln γ± curve (Gibbs-Duhem holds). The azeotrope at "
+                     "1 atm agrees only because it was fitted; Clegg & Brimblecombe's (1990) parameters or Davis & De "
+                     "Bruin's (1964) activities, when read, are the test."});
+    cases.push_back({binaries, "HNO3 maximum-boiling azeotrope at 1 atm, °C", boiling_read, 120.5, 2.0,
+                     [nitric] { return binary_azeotrope(nitric, 0.55, 0.70).second; }});
     cases.push_back({binaries, "H2SO4 50 wt %, boiling point at 1 atm, °C", boiling_memory, 124.0, 5.0,
                      [sulfuric] { return binary_boiling_celsius(sulfuric, 0.50); }});
-    cases.push_back({binaries, "H2SO4 70 wt %, boiling point at 1 atm, °C", boiling_memory, 167.0, 6.0,
-                     [sulfuric] { return binary_boiling_celsius(sulfuric, 0.70); },
-                     "H2SO4 70 wt %: the 25 °C water activity (Zeleznik 1991) carried to 160 °C with the NBS heats "
-                     "boils 5.6 K below the recalled 167 °C. The carry needs L̄_w at n = 2.33 mol H2O per mol, "
-                     "between the n = 2 and 5 heats that are recalled, not read (NBS Circular 500): 1.2 kJ/mol in "
-                     "L̄_w moves this boiling point by about 3.5 K. Published 5 K (from memory); held at 6 K until "
-                     "the NBS n = 2–5 heats or Gmitro & Vermeulen's table are read."});
+    cases.push_back({binaries, "H2SO4 70 wt %, boiling point at 1 atm, °C", boiling_memory, 167.0, 5.0,
+                     [sulfuric] { return binary_boiling_celsius(sulfuric, 0.70); }});
     // Densities away from 20 °C: only the 20 °C tables enter the models; the temperature dependence
     // is water's own expansion plus the pure acid's (docs/concentrated-acids.md).
     const std::string advancedthermo = "advancedthermo.com electrolyte density tables (read)";
@@ -710,6 +704,21 @@ std::vector<ReferenceCase> build_cases() {
     cases.push_back({binaries, "98 wt % H2SO4 diluted to 50 wt % at 25 °C, heat released, kJ per kg acid",
                      "NBS tables, Wagman et al. 1982, integral heats of solution, derived (about)", 550.0, 55.0,
                      [] { return sulfuric_dilution_heat(0.50); }});
+    // HCl heat capacity away from 20 °C: the model's 20 °C table (Wikipedia) carried by the slope β
+    // fitted to Perry's 0–60 °C columns (its 20 °C column is not a node of the model's table).
+    const std::string perry_heats = "Perry's Handbook, specific heats of aqueous solutions, hydrochloric acid (read)";
+    for (const auto& [t, value] : {std::pair{0.0, 0.58}, std::pair{60.0, 0.638}})
+      cases.push_back({binaries, fmt::format("HCl 20.0 mol % (33.6 wt %), specific heat at {:g} °C, cal/(g K)", t),
+                       perry_heats, value, 0.02 * value, [t = t, hydrochloric] {
+                         const double x = 0.200, solute = x * thermo::describe(hydrochloric).solute_molar_mass;
+                         const double w = solute / (solute + (1.0 - x) * thermo::constants::water_molar_mass);
+                         return thermo::binary_properties(hydrochloric, t + celsius, w).heat_capacity / 4184.0;
+                       }});
+    cases.push_back({binaries, "HCl 22 wt %, partial pressure of HCl at 30 °C, mmHg",
+                     "Perry's Handbook, partial pressures of HCl over aqueous HCl, as quoted in a course tutorial (read)",
+                     1.02, 0.10 * 1.02, [hydrochloric] {
+                       return thermo::binary_properties(hydrochloric, 303.15, 0.22).solute_vapour_pressure / 133.322;
+                     }});
   }
   {
     // Cyanide (thermo/data/cyanide.yaml): pKa of HCN at 20 and 30 °C as measured, and Henry's law for

@@ -58,6 +58,16 @@ SmoothTable heat_capacity_table() {
   return {{0.0, 0.10, 0.20, 0.30, 0.32, 0.34, 0.36, 0.38}, {4181.3, 3470, 2990, 2600, 2550, 2500, 2460, 2430}};
 }
 
+// β = ∂Δcp/∂T, J/(kg K²): least-squares slopes of perry-specific-heats' hydrochloric-acid table
+// (read; cal/(g °C) × 4184 at 0, 10, 20, 40 and 60 °C for 9.09, 16.7 and 20.0 mol % HCl, at 0 and 60 °C
+// for 25.9 mol %), less (1 − w) times pure water's slope over the same temperatures (iapws-95 through
+// python3-iapws: −0.488 J/(kg K²), −0.574 for 0–60 °C), so that water's own change, which the model
+// carries separately, is not counted twice. Zero at w = 0. The table's two or three digits make each
+// slope uncertain by about 15 %.
+SmoothTable heat_capacity_temperature_slope_table() {
+  return {{0.0, 0.1683, 0.2886, 0.3360, 0.4143}, {0.0, 4.626, 4.827, 4.789, 4.520}};
+}
+
 // Density at 20 °C, kg/m³: crc-concentrative-properties (read, REFERENCE-VALUES.md) at 10, 20, 30 and 36 wt %;
 // wikipedia-hydrochloric-acid (read) at 32, 34 and 38 wt %; pure water from IAPWS-95.
 SmoothTable density_table() {
@@ -74,6 +84,7 @@ BinaryData make_data() {
       heat_capacity_gas,
       heat_of_solution_table(),
       heat_capacity_table(),
+      heat_capacity_temperature_slope_table(),
       density_table(),
       [](double) { return 0.0; },  // the expansion of dissolved HCl is not known here: water's alone
       [](double x) { return isotherm().ln_water_activity(x); },

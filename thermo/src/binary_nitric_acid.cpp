@@ -38,16 +38,22 @@ SmoothTable heat_of_solution_table() {
 }
 
 // Mean activity coefficients at 25 °C to 3 mol/kg: robinson-stokes-1959, appendix 8.10 (from
-// memory). Beyond 3 mol/kg, where no values were read, ln γ± continues linearly in m with the one
-// slope that puts the maximum-boiling azeotrope at 1 atm at 68.0 wt % (REFERENCE-VALUES.md, read):
-// a fitted parameter, not a published one. The table's own slope at 3 mol/kg, 0.144, would put the
-// azeotrope at 47 wt %, 115 °C. The azeotrope's temperature is then a check (docs/validation.md).
-constexpr double slope_beyond_3_molal = 0.0425;  // per mol/kg, fitted (above)
+// memory). Beyond 3 mol/kg no values were read (the azeotrope lies at 34 mol/kg). There ln γ±
+// leaves the table with its own slope (0.144 kg/mol at 3 mol/kg) and bends smoothly towards a final
+// slope over a molality scale (UniUnivalentIsotherm::Continuation): two parameters, fitted so that
+// the maximum-boiling azeotrope at 1 atm lies at 68.0 wt % and 120.5 °C (REFERENCE-VALUES.md, read;
+// the 25 °C isotherm carried there with Parker's heats). Fitted, not published: the azeotrope is
+// then a calibration, not a check (docs/concentrated-acids.md). Water and acid activities still come
+// from the one ln γ± curve, so Gibbs–Duhem holds whatever the parameters.
+constexpr UniUnivalentIsotherm::Continuation beyond_3_molal{
+    -0.00918,  // final slope of ln γ±, kg/mol: fitted (above)
+    12.63,     // molality scale of the bend, mol/kg: fitted (above)
+};
 
 const UniUnivalentIsotherm& isotherm() {
   static const UniUnivalentIsotherm curve(40.0, {0.001, 0.01, 0.1, 0.2, 0.5, 1.0, 1.5, 2.0, 2.5, 3.0},
                                           {0.965, 0.902, 0.791, 0.754, 0.720, 0.724, 0.753, 0.793, 0.846, 0.909},
-                                          slope_beyond_3_molal);
+                                          beyond_3_molal);
   return curve;
 }
 
@@ -77,6 +83,7 @@ BinaryData make_data() {
       53.35,      // Cp° HNO3(g), J/(mol K): nbs-1982 (from memory)
       heat_of_solution_table(),
       heat_capacity_table(),
+      std::nullopt,  // no heat capacities away from 25 °C read: Δcp independent of T
       density_table(),
       solute_expansion,
       [](double x) { return isotherm().ln_water_activity(x); },

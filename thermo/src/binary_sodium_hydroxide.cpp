@@ -65,6 +65,7 @@ BinaryData make_data() {
       heat_of_solution_table(),
       // Pure water 4181.3 J/(kg K) from IAPWS-95 (iapws-95): the correlation is 2 % high there.
       column(&Isotherm::heat_capacity, 4181.3, false),
+      std::nullopt,  // Δcp taken independent of T (the correlation's own T-dependence is not used)
       column(&Isotherm::density, 998.21, false),  // pure water from IAPWS-95 (iapws-95)
       [](double) { return 0.0; },                 // a solid reference: water's expansion alone
       [ln_water_activity](double x) { return ln_water_activity(x); },

@@ -93,10 +93,19 @@ double mixing_heat_capacity_slope(const BinaryData& d, double w) {
   return d.heat_capacity.slope(w) + d.heat_capacity(0.0) - d.solute_heat_capacity / solute_molar_mass(d);
 }
 
-// Enthalpy of mixing at T per kg of solution (Kirchhoff: Δcp does not depend on T here).
+// β(w) = ∂Δcp/∂T per kg of solution, and its slope against mass fraction (zero without a table).
+double heat_capacity_temperature_slope(const BinaryData& d, double w) {
+  return d.heat_capacity_temperature_slope ? (*d.heat_capacity_temperature_slope)(w) : 0.0;
+}
+double heat_capacity_temperature_slope_slope(const BinaryData& d, double w) {
+  return d.heat_capacity_temperature_slope ? d.heat_capacity_temperature_slope->slope(w) : 0.0;
+}
+
+// Enthalpy of mixing at T per kg of solution (Kirchhoff with Δcp(T) = Δcp + β (T − T0)).
 double mixing_enthalpy_per_kg(const BinaryData& d, double temperature, double w) {
-  const double x = mole_fraction(d, w);
-  return x * d.heat_of_solution(x) / mean_molar_mass(d, x) + mixing_heat_capacity(d, w) * (temperature - t0);
+  const double x = mole_fraction(d, w), dt = temperature - t0;
+  return x * d.heat_of_solution(x) / mean_molar_mass(d, x) + mixing_heat_capacity(d, w) * dt +
+         heat_capacity_temperature_slope(d, w) * dt * dt / 2.0;
 }
 
 // Partial molar quantities of water and solute from a per-mole-of-solution quantity f(x) and f'(x).
@@ -111,26 +120,40 @@ Partials relative_enthalpies(const BinaryData& d, double x) {
   return partials(x * d.heat_of_solution(x), d.heat_of_solution(x) + x * d.heat_of_solution.slope(x), x);
 }
 
-// Relative partial molar heat capacities, J/(mol K), from Δcp per mole of solution.
-Partials relative_heat_capacities(const BinaryData& d, double x) {
+// Partial molar quantities, per mol, of a property given per kg of solution as f(w) with slope f′(w).
+template <typename PerKg, typename PerKgSlope>
+Partials partials_of_per_kg(const BinaryData& d, double x, PerKg per_kg, PerKgSlope per_kg_slope) {
   const double ms = solute_molar_mass(d), mean = mean_molar_mass(d, x);
   const double w = x * ms / mean, dw_dx = ms * water_molar_mass / (mean * mean);
-  const double per_mole = mixing_heat_capacity(d, w) * mean;
-  const double slope =
-      mixing_heat_capacity_slope(d, w) * dw_dx * mean + mixing_heat_capacity(d, w) * (ms - water_molar_mass);
+  const double per_mole = per_kg(d, w) * mean;
+  const double slope = per_kg_slope(d, w) * dw_dx * mean + per_kg(d, w) * (ms - water_molar_mass);
   return partials(per_mole, slope, x);
 }
 
-// ∫_{T0}^{T} H(T') / (R T'²) dT' for H(T') = h + c (T' − T0): the Gibbs–Helmholtz integral.
-double gibbs_helmholtz(double h, double c, double temperature) {
-  return ((h - c * t0) * (1.0 / t0 - 1.0 / temperature) + c * std::log(temperature / t0)) / gas_constant;
+// Relative partial molar heat capacities at 298.15 K, J/(mol K), from Δcp per mole of solution.
+Partials relative_heat_capacities(const BinaryData& d, double x) {
+  return partials_of_per_kg(d, x, mixing_heat_capacity, mixing_heat_capacity_slope);
 }
 
-// ∂ ln a_w / ∂T = −L̄_w / (R T²), L̄_w(T) = L̄_w(T0) + J̄_w (T − T0).
+// Their temperature slopes, J/(mol K²), from β per mole of solution.
+Partials relative_heat_capacity_slopes(const BinaryData& d, double x) {
+  return partials_of_per_kg(d, x, heat_capacity_temperature_slope, heat_capacity_temperature_slope_slope);
+}
+
+// ∫_{T0}^{T} H(T') / (R T'²) dT' for H(T') = h + c (T' − T0) + k (T' − T0)²/2: the Gibbs–Helmholtz
+// integral. With H = A + B T' + (k/2) T'², A = h − c T0 + k T0²/2, B = c − k T0.
+double gibbs_helmholtz(double h, double c, double k, double temperature) {
+  const double a = h - c * t0 + k * t0 * t0 / 2.0, b = c - k * t0;
+  return (a * (1.0 / t0 - 1.0 / temperature) + b * std::log(temperature / t0) + k * (temperature - t0) / 2.0) /
+         gas_constant;
+}
+
+// ∂ ln a_w / ∂T = −L̄_w / (R T²), L̄_w(T) = L̄_w(T0) + J̄_w (T − T0) + K̄_w (T − T0)²/2.
 double ln_water_activity(const BinaryData& d, double temperature, double x) {
   if (x == 0.0) return 0.0;
-  return d.ln_water_activity(x) -
-         gibbs_helmholtz(relative_enthalpies(d, x).water, relative_heat_capacities(d, x).water, temperature);
+  return d.ln_water_activity(x) - gibbs_helmholtz(relative_enthalpies(d, x).water,
+                                                  relative_heat_capacities(d, x).water,
+                                                  relative_heat_capacity_slopes(d, x).water, temperature);
 }
 
 // ∂ ln p / ∂T = (H_gas − H̄_solute) / (R T²), both against the pure solute's reference phase.
@@ -139,7 +162,8 @@ double solute_vapour_pressure(const BinaryData& d, double temperature, double x)
   const double vaporisation =
       d.vapour_formation_enthalpy - d.solute_formation_enthalpy - relative_enthalpies(d, x).solute;
   const double change = d.vapour_heat_capacity - d.solute_heat_capacity - relative_heat_capacities(d, x).solute;
-  return std::exp(d.ln_solute_pressure(x) + gibbs_helmholtz(vaporisation, change, temperature));
+  const double change_slope = -relative_heat_capacity_slopes(d, x).solute;
+  return std::exp(d.ln_solute_pressure(x) + gibbs_helmholtz(vaporisation, change, change_slope, temperature));
 }
 
 double water_vapour_pressure(const BinaryData& d, double temperature, double x) {
@@ -157,7 +181,8 @@ double specific_enthalpy(const BinaryData& d, double temperature, double w) {
 // The table's cp(w) with its water carried to T as the engine's liquid water (its pure-water end is
 // then exactly the engine's water at every T, and ∂h/∂T is this, Kirchhoff).
 double heat_capacity(const BinaryData& d, double temperature, double w) {
-  return d.heat_capacity(w) + (1.0 - w) * (liquid_water_heat_capacity(temperature) / water_molar_mass - d.heat_capacity(0.0));
+  return d.heat_capacity(w) + heat_capacity_temperature_slope(d, w) * (temperature - t0) +
+         (1.0 - w) * (liquid_water_heat_capacity(temperature) / water_molar_mass - d.heat_capacity(0.0));
 }
 
 // Excess volume taken independent of T: each component expands as it does pure.

@@ -5,6 +5,7 @@
 #pragma once
 
 #include <functional>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -33,6 +34,11 @@ struct BinaryData {
   SmoothTable heat_of_solution;
   // Specific heat capacity of the solution, J/(kg K), against solute mass fraction, at about 25 °C.
   SmoothTable heat_capacity;
+  // β(w) = ∂Δcp/∂T, J/(kg K²): how the excess heat capacity (the table's cp less the unmixed
+  // components, water's own change with T taken out) changes with temperature, against solute mass
+  // fraction, zero at w = 0. Empty where no heat capacities away from 25 °C were read: Δcp is then
+  // independent of T.
+  std::optional<SmoothTable> heat_capacity_temperature_slope;
   // Density at 20 °C, kg/m³, against solute mass fraction.
   SmoothTable density;
   // v(T) − v(293.15 K) of the pure solute, m³/kg (its thermal expansion; zero for a gas or solid

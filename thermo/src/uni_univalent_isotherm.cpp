@@ -30,16 +30,19 @@ std::vector<double> logarithms(const std::vector<double>& gamma) {
 UniUnivalentIsotherm::UniUnivalentIsotherm(double largest_molality, const std::vector<double>& molality,
                                            const std::vector<double>& mean_activity_coefficient)
     : UniUnivalentIsotherm(largest_molality, molality, mean_activity_coefficient,
-                           std::numeric_limits<double>::quiet_NaN()) {}
+                           Continuation{std::numeric_limits<double>::quiet_NaN(), 0.0}) {}
 
 UniUnivalentIsotherm::UniUnivalentIsotherm(double largest_molality, const std::vector<double>& molality,
-                                           const std::vector<double>& mean_activity_coefficient, double slope_beyond)
+                                           const std::vector<double>& mean_activity_coefficient, Continuation beyond)
     : last_molality_(molality.back()),
       last_ln_gamma_(std::log(mean_activity_coefficient.back())),
-      last_slope_(slope_beyond),
+      last_slope_(0.0),
+      beyond_(beyond),
       ln_gamma_(square_roots(molality), logarithms(mean_activity_coefficient)) {
   const double s_last = std::sqrt(last_molality_);
-  if (std::isnan(last_slope_)) last_slope_ = ln_gamma_.slope(s_last) / (2.0 * s_last);
+  last_slope_ = ln_gamma_.slope(s_last) / (2.0 * s_last);
+  if (std::isnan(beyond_.final_slope)) beyond_ = {last_slope_, 0.0};  // straight on along the table's slope
+  if (beyond_.bend < 0.0) throw std::invalid_argument("the bend of an isotherm's continuation must not be negative");
   // ∫₀^m ln γ± dm = ∫₀^√m ln γ±(s²) 2 s ds, by Simpson's rule on each step of a fine grid of s = √m.
   const double s_end = std::sqrt(std::max(largest_molality, last_molality_));
   grid_.resize(integral_steps + 1);
@@ -53,7 +56,11 @@ UniUnivalentIsotherm::UniUnivalentIsotherm(double largest_molality, const std::v
 }
 
 double UniUnivalentIsotherm::ln_mean_activity_coefficient(double molality) const {
-  if (molality > last_molality_) return last_ln_gamma_ + last_slope_ * (molality - last_molality_);
+  if (molality > last_molality_) {
+    const double d = molality - last_molality_, c = beyond_.final_slope, b = beyond_.bend;
+    const double bent = b > 0.0 ? (last_slope_ - c) * b * -std::expm1(-d / b) : 0.0;
+    return last_ln_gamma_ + c * d + bent;
+  }
   return ln_gamma_(std::sqrt(molality));
 }
 

@@ -18,10 +18,16 @@ class UniUnivalentIsotherm {
   // limit to hold); the isotherm is tabulated up to largest_molality.
   UniUnivalentIsotherm(double largest_molality, const std::vector<double>& molality,
                        const std::vector<double>& mean_activity_coefficient);
-  // The same, with ln γ± continuing beyond the last point at the given slope (per mol/kg) instead
-  // of the table's own.
+  // How ln γ± continues beyond the last tabulated point, d = m − m_last: it leaves with the table's
+  // own slope s and bends smoothly towards a final slope c over a molality scale b,
+  //   ln γ± = ln γ±(m_last) + c d + (s − c) b (1 − exp(−d/b)),
+  // so ln γ± and its slope stay continuous (a kink in ln γ± would be one in ∂ln a_w/∂m).
+  struct Continuation {
+    double final_slope;  // c, per mol/kg
+    double bend;         // b, mol/kg
+  };
   UniUnivalentIsotherm(double largest_molality, const std::vector<double>& molality,
-                       const std::vector<double>& mean_activity_coefficient, double slope_beyond);
+                       const std::vector<double>& mean_activity_coefficient, Continuation beyond);
   double ln_mean_activity_coefficient(double molality) const;
   double ln_water_activity(double x) const;
   // ln(m² γ±²), the solute activity on the molality scale; −inf at x = 0.
@@ -32,6 +38,7 @@ class UniUnivalentIsotherm {
   double integral_ln_gamma(double molality) const;
   double segment_integral(double from, double to) const;
   double last_molality_, last_ln_gamma_, last_slope_;
+  Continuation beyond_;
   SmoothTable ln_gamma_;                 // against √m, so that the Debye–Hückel √m start is smooth
   std::vector<double> grid_, integral_;  // ∫₀^m ln γ± dm on a fine grid of m
 };
