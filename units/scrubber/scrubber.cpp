@@ -184,10 +184,14 @@ Scrubber::SumpAnswer Scrubber::solve_with_sump(const ColumnSpecification& specif
   bool raises = true;  // the reagent raises the pH (a base), as the unreachable setpoint said
 
   // The unknowns x: the recirculated liquor per kg (mol/kg per component) and its temperature.
-  // A cold start: fresh water.
+  // From the last steady recirculation (in a recycle the feeds change little from one pass to the
+  // next), or cold, from fresh water.
   std::vector<double> x(count + 1, 0.0), g(count + 1), x_last, g_last;
   x[water] = 1.0 / system.component_molar_mass(water);
   x[count] = fresh_water_temperature_;
+  const bool warm = last_recirculation_.size() == x.size();
+  if (warm) x = last_recirculation_;
+  std::vector<double> wegstein(count + 1, 0.0);  // the factor of each unknown's last step
   SumpAnswer answer;
   for (long pass = 1; pass <= sump_passes; ++pass) {
     for (std::size_t c = 0; c < count; ++c) feeds.liquid[c] = recirculation_ * x[c];
@@ -234,6 +238,10 @@ Scrubber::SumpAnswer Scrubber::solve_with_sump(const ColumnSpecification& specif
       // balances close to round-off, the bleed's composition is the sump's to the tolerance.
       answer.bleed.assign(count, 0.0);
       for (std::size_t c = 0; c < count; ++c) answer.bleed[c] = std::max(0.0, answer.mix.totals[c] - feeds.liquid[c]);
+      if (dose != SumpDose::most) {
+        last_recirculation_ = g;
+        last_wegstein_ = wegstein;
+      }
       if (dose == SumpDose::most) {
         highest_ph = answer.mix.state.ph;
         throw unit::UnitError(PFU_INVALID_PARAMETER,
@@ -244,17 +252,23 @@ Scrubber::SumpAnswer Scrubber::solve_with_sump(const ColumnSpecification& specif
       }
       return answer;
     }
-    // The next pass: a bounded Wegstein step per unknown once two passes give its slope.
+    // The next pass: a bounded Wegstein step per unknown once two passes give its slope; at the
+    // first pass of a warm start, with the factor the last solve ended with (the slopes of a
+    // recirculation change little with its feeds).
     std::vector<double> next = g;
-    if (!x_last.empty()) {
-      for (std::size_t i = 0; i <= count; ++i) {
+    for (std::size_t i = 0; i <= count; ++i) {
+      double q = 0.0;
+      if (!x_last.empty()) {
         const double dx = x[i] - x_last[i];
         if (dx == 0.0) continue;
         const double slope = (g[i] - g_last[i]) / dx;
-        const double q = std::clamp(slope / (slope - 1.0), wegstein_lowest, 0.0);
-        const double step = q * x[i] + (1.0 - q) * g[i];
-        if (step >= 0.0 && std::isfinite(step)) next[i] = step;
+        q = std::clamp(slope / (slope - 1.0), wegstein_lowest, 0.0);
+      } else if (warm && last_wegstein_.size() == x.size()) {
+        q = last_wegstein_[i];
       }
+      wegstein[i] = q;
+      const double step = q * x[i] + (1.0 - q) * g[i];
+      if (step >= 0.0 && std::isfinite(step)) next[i] = step;
     }
     x_last = x;
     g_last = g;
@@ -372,6 +386,10 @@ void Scrubber::solve(std::span<const unit::InletState> inlets, std::span<unit::O
   gas_out.pressure = specification.pressure;
   liquor_out.temperature = sump ? sump->mix.temperature : profile.temperature.back();
   liquor_out.pressure = specification.pressure;
+  // A recycle's pass before the last reads the outlets alone (unit ABI 1.4): the search for the
+  // stages an emission limit needs, the profiles, the results and the warnings are for the
+  // reporting pass.
+  if (results.outlets_only()) return;
 
   // Results per gas of the trade.
   double gas_out_total = 0.0;
