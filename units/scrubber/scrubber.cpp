@@ -189,9 +189,7 @@ Scrubber::SumpAnswer Scrubber::solve_with_sump(const ColumnSpecification& specif
   std::vector<double> x(count + 1, 0.0), g(count + 1), x_last, g_last;
   x[water] = 1.0 / system.component_molar_mass(water);
   x[count] = fresh_water_temperature_;
-  const bool warm = last_recirculation_.size() == x.size();
-  if (warm) x = last_recirculation_;
-  std::vector<double> wegstein(count + 1, 0.0);  // the factor of each unknown's last step
+  if (last_recirculation_.size() == x.size()) x = last_recirculation_;
   SumpAnswer answer;
   for (long pass = 1; pass <= sump_passes; ++pass) {
     for (std::size_t c = 0; c < count; ++c) feeds.liquid[c] = recirculation_ * x[c];
@@ -238,10 +236,7 @@ Scrubber::SumpAnswer Scrubber::solve_with_sump(const ColumnSpecification& specif
       // balances close to round-off, the bleed's composition is the sump's to the tolerance.
       answer.bleed.assign(count, 0.0);
       for (std::size_t c = 0; c < count; ++c) answer.bleed[c] = std::max(0.0, answer.mix.totals[c] - feeds.liquid[c]);
-      if (dose != SumpDose::most) {
-        last_recirculation_ = g;
-        last_wegstein_ = wegstein;
-      }
+      if (dose != SumpDose::most) last_recirculation_ = g;
       if (dose == SumpDose::most) {
         highest_ph = answer.mix.state.ph;
         throw unit::UnitError(PFU_INVALID_PARAMETER,
@@ -252,23 +247,17 @@ Scrubber::SumpAnswer Scrubber::solve_with_sump(const ColumnSpecification& specif
       }
       return answer;
     }
-    // The next pass: a bounded Wegstein step per unknown once two passes give its slope; at the
-    // first pass of a warm start, with the factor the last solve ended with (the slopes of a
-    // recirculation change little with its feeds).
+    // The next pass: a bounded Wegstein step per unknown once two passes give its slope.
     std::vector<double> next = g;
-    for (std::size_t i = 0; i <= count; ++i) {
-      double q = 0.0;
-      if (!x_last.empty()) {
+    if (!x_last.empty()) {
+      for (std::size_t i = 0; i <= count; ++i) {
         const double dx = x[i] - x_last[i];
         if (dx == 0.0) continue;
         const double slope = (g[i] - g_last[i]) / dx;
-        q = std::clamp(slope / (slope - 1.0), wegstein_lowest, 0.0);
-      } else if (warm && last_wegstein_.size() == x.size()) {
-        q = last_wegstein_[i];
+        const double q = std::clamp(slope / (slope - 1.0), wegstein_lowest, 0.0);
+        const double step = q * x[i] + (1.0 - q) * g[i];
+        if (step >= 0.0 && std::isfinite(step)) next[i] = step;
       }
-      wegstein[i] = q;
-      const double step = q * x[i] + (1.0 - q) * g[i];
-      if (step >= 0.0 && std::isfinite(step)) next[i] = step;
     }
     x_last = x;
     g_last = g;

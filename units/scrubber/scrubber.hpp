@@ -172,7 +172,6 @@ class Scrubber {
   std::unique_ptr<Sump> sump_;      // with recirculation only
   std::map<std::size_t, ColumnProfile> previous_profiles_;  // the last answer at each stage count solved
   std::vector<double> last_recirculation_;  // the last steady recirculated liquor (mol/kg per component) and its T (K)
-  std::vector<double> last_wegstein_;       // the Wegstein factor of each of those unknowns at its last step
 };
 
 }  // namespace protonflow::scrubber
