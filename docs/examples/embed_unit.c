@@ -316,6 +316,7 @@ static int run_blender(const pfu_unit_class* blender) {
   call.warnings_capacity = 0;
   call.message = message;
   call.message_capacity = sizeof message;
+  call.flags = 0; /* since 1.4: a full solve, results and series wanted */
   status = blender->solve_call(instance, &call);
   if (status != PFU_OK) {
     fprintf(stderr, "blender solve failed (%s): %s\n", pfu_status_name(status), message);

@@ -136,7 +136,8 @@ class Runner {
       ++iteration;
       unpack(x);
       const std::string when = fmt::format("in iteration {} of the recycle", iteration);
-      for (const std::size_t unit : order_.loop) solve_unit(unit, when);
+      // Only the outlets of these passes are read: units that can skip the rest do (unit ABI 1.4).
+      for (const std::size_t unit : order_.loop) solve_unit(unit, when, true);
       pack(g);
     };
     const RecycleFloor floor = [&](std::span<const double> g, std::span<double> out) { floors(g, out); };
@@ -174,7 +175,7 @@ class Runner {
     solution_.recycle = std::move(report);
   }
 
-  void solve_unit(std::size_t index, const std::string& when) {
+  void solve_unit(std::size_t index, const std::string& when, bool outlets_only = false) {
     const UnitNode& unit = flowsheet_.units[index];
     std::vector<unit_host::StreamState>& inlets = inlet_scratch_[index];
     std::vector<unit_host::StreamState>& outlets = outlet_scratch_[index];
@@ -191,7 +192,7 @@ class Runner {
     const auto start = std::chrono::steady_clock::now();
     unit_host::Solution result;
     try {
-      result = instances_[index].solve(inlets, unit.inlet_counts, outlets, unit.outlet_counts);
+      result = instances_[index].solve(inlets, unit.inlet_counts, outlets, unit.outlet_counts, outlets_only);
     } catch (const unit_host::SolveError& error) {
       throw UnitSolveFailure(index, error.status(), error.what(), when);
     } catch (const std::invalid_argument& error) {

@@ -138,8 +138,9 @@ TEST_CASE("counts outside a list port's bounds are refused by the host and by th
   }
   REQUIRE(raw != nullptr);
   REQUIRE(raw->solve_call != nullptr);
-  REQUIRE(raw->capability_count == 1);
+  REQUIRE(raw->capability_count == 2);
   CHECK(raw->capabilities[0]->id == PFU_CAPABILITY_SERIES);
+  CHECK(raw->capabilities[1]->id == PFU_CAPABILITY_OUTLETS_ONLY);
   const std::array<const char*, 1> components{"H2O"};
   const pfu_slate slate{{PFU_ABI_MAJOR, PFU_ABI_MINOR, sizeof(pfu_slate)}, 1, 0, components.data(), nullptr};
   std::array<char, 512> message{};
@@ -161,7 +162,7 @@ TEST_CASE("counts outside a list port's bounds are refused by the host and by th
   const std::uint32_t out_count = 1;
   pfu_solve_call call{{PFU_ABI_MAJOR, PFU_ABI_MINOR, sizeof(pfu_solve_call)},
                       inlets.data(), raw_outlets, &in_count, &out_count, 9, 1, &result, 1, 2, series,
-                      nullptr, 0, message.data(), message.size()};
+                      nullptr, 0, message.data(), message.size(), 0};
   CHECK(raw->solve_call(instance, &call) == PFU_INVALID_ARGUMENT);
   CHECK_THAT(message.data(), Contains("port 'feed' takes 1 to 8 streams; solve was given 9"));
 

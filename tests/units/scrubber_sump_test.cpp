@@ -1,7 +1,8 @@
 // The scrubber with its sump, loaded as a host loads it: the unit's balances of component, charge,
 // mass and energy with recirculation, bleed, reagent make-up and fresh water; the pH setpoint
 // held; an unreachable setpoint refused with the highest pH the reagent can hold; HCl removal
-// rising with the recirculation; the refusals of the sump's parameters.
+// rising with the recirculation; the refusals of the sump's parameters; the warm start and the
+// outlets-only pass against a fresh unit.
 #include <catch2/catch.hpp>
 
 #include <protonflow/thermo/chemical_system.hpp>
@@ -10,7 +11,9 @@
 #include <protonflow/thermo/equilibrium_solver.hpp>
 #include <protonflow/thermo/stream_enthalpy.hpp>
 
+#include <array>
 #include <cmath>
+#include <cstdint>
 #include <string>
 #include <vector>
 
@@ -284,4 +287,40 @@ TEST_CASE("scrubber sump: a bleed given as a fraction, the reagent dosed as it c
   // 3 mmol/s of NaOH against 1.87 mmol/s of HCl taken up: the sump stays alkaline.
   CHECK(result(unit, r, "sump_ph") > 9.0);
   CHECK(result(unit, r, "sump_residual") <= 1e-10);
+}
+
+TEST_CASE("scrubber sump: warm from its last answer, and on an outlets-only pass, it gives a fresh unit's outlets",
+          "[scrubber][sump]") {
+  const host::StreamState make_up = liquor(0.03, 0.0);
+  const host::StreamState reagent = liquor(0.96, 1.0);
+  auto warm = scrubber_module().create("scrubber", sump_parameters(0.5, 8.0), sump_slate);
+  (void)run(warm, vent(2e-3), make_up, reagent);  // its last answer: another gas load
+
+  // A recycle's pass (unit ABI 1.4): outlets only, no results, no profiles.
+  const std::vector<host::StreamState> inlets{vent(2.2e-3), make_up, reagent};
+  std::vector<host::StreamState> pass_outlets(2);
+  const std::array<std::uint32_t, 3> one_each_in{1, 1, 1};
+  const std::array<std::uint32_t, 2> one_each_out{1, 1};
+  REQUIRE(warm.unit_class().outlets_only);
+  const host::Solution pass = warm.solve(inlets, one_each_in, pass_outlets, one_each_out, true);
+  CHECK(std::isnan(result(warm, Run{{}, {}, pass}, "sump_ph")));
+  CHECK(pass.series.front().x.empty());
+
+  const Run again = run(warm, inlets[0], make_up, reagent);
+  auto fresh = scrubber_module().create("scrubber", sump_parameters(0.5, 8.0), sump_slate);
+  const Run cold = run(fresh, inlets[0], make_up, reagent);
+  // Each answer is the steady recirculation to 1e-10 of itself and the setpoint to 1e-9 pH: the
+  // outlets agree far inside 1e-7.
+  for (std::size_t k = 0; k < cold.bleed.flows.size(); ++k) {
+    CAPTURE(k);
+    CHECK(again.bleed.flows[k] == Approx(cold.bleed.flows[k]).epsilon(1e-7).margin(1e-14));
+    CHECK(pass_outlets[1].flows[k] == Approx(cold.bleed.flows[k]).epsilon(1e-7).margin(1e-14));
+    CHECK(again.gas_out.flows[k] == Approx(cold.gas_out.flows[k]).epsilon(1e-7).margin(1e-14));
+    CHECK(pass_outlets[0].flows[k] == Approx(cold.gas_out.flows[k]).epsilon(1e-7).margin(1e-14));
+  }
+  CHECK(again.bleed.temperature == Approx(cold.bleed.temperature).margin(1e-6));
+  CHECK(result(warm, again, "sump_ph") == Approx(8.0).margin(1e-8));
+  CHECK(result(warm, again, "reagent_flow") == Approx(result(fresh, cold, "reagent_flow")).epsilon(1e-7));
+  // The warm start is what it is for: fewer column-and-sump passes.
+  CHECK(result(warm, again, "sump_iterations") < result(fresh, cold, "sump_iterations"));
 }

@@ -3,6 +3,7 @@
 #include <boost/math/tools/roots.hpp>
 #include <algorithm>
 #include <cmath>
+#include <limits>
 #include <fmt/format.h>
 #include <optional>
 
@@ -43,9 +44,9 @@ double state_enthalpy(const ChemicalSystem& system, const Speciation& state, con
   return h;
 }
 
-void solve_at_enthalpy(EquilibriumSolver& solver, double enthalpy, double pressure, std::span<const double> amounts,
-                       std::span<const double> open_gas_pressures, Speciation& out, const ExcessEnthalpyModel* excess,
-                       TemperatureEstimate estimate) {
+double solve_at_enthalpy(EquilibriumSolver& solver, double enthalpy, double pressure, std::span<const double> amounts,
+                         std::span<const double> open_gas_pressures, Speciation& out, const ExcessEnthalpyModel* excess,
+                         TemperatureEstimate estimate) {
   if (!std::isfinite(enthalpy)) throw ThermoError(ErrorKind::bad_input, "the enthalpy to match is not a finite number");
   const ChemicalSystem& system = solver.system();
   const auto mismatch = [&](double t) {
@@ -60,7 +61,8 @@ void solve_at_enthalpy(EquilibriumSolver& solver, double enthalpy, double pressu
       return false;
     }
   };
-  // TOMS 748 (Alefeld, Potra & Shi 1995) until the bracket is 1e-9 K wide.
+  // TOMS 748 (Alefeld, Potra & Shi 1995) until the bracket is 1e-9 K wide; returns the slope of H
+  // across the bracket it was given.
   const auto solve_in = [&](double low, double high, double at_low, double at_high) {
     std::uintmax_t iterations = 100;
     const auto [a, b] = boost::math::tools::toms748_solve(
@@ -71,6 +73,7 @@ void solve_at_enthalpy(EquilibriumSolver& solver, double enthalpy, double pressu
                                     "(last bracket {:.9f}–{:.9f} K)",
                                     enthalpy, a, b));
     mismatch(0.5 * (a + b));
+    return (at_high - at_low) / (high - low);
   };
 
   // From an estimate: step away from it towards the target (H rises with T), the first step the
@@ -102,8 +105,9 @@ void solve_at_enthalpy(EquilibriumSolver& solver, double enthalpy, double pressu
   };
   if (const std::optional<Bracket> bracket = bracket_near()) {
     // An end where H meets the target exactly was the last state solved: out holds it already.
-    if (bracket->at_low != 0.0 && bracket->at_high != 0.0) solve_in(bracket->low, bracket->high, bracket->at_low, bracket->at_high);
-    return;
+    if (bracket->at_low != 0.0 && bracket->at_high != 0.0) return solve_in(bracket->low, bracket->high, bracket->at_low, bracket->at_high);
+    return bracket->low != bracket->high ? (bracket->at_high - bracket->at_low) / (bracket->high - bracket->low)
+                                         : std::numeric_limits<double>::quiet_NaN();
   }
 
   // The bracket is the data's range, narrowed where the state cannot exist at an end: pure water at
@@ -134,7 +138,7 @@ void solve_at_enthalpy(EquilibriumSolver& solver, double enthalpy, double pressu
                                   enthalpy, at_low > 0.0 ? "below" : "above", low, high, at_low > 0.0 ? at_low : at_high,
                                   at_low > 0.0 ? low : high,
                                   high < system.maximum_temperature() ? "; above that the liquid boils away at this pressure" : ""));
-  solve_in(low, high, at_low, at_high);
+  return solve_in(low, high, at_low, at_high);
 }
 
 }  // namespace protonflow::thermo

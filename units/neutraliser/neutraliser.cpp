@@ -23,10 +23,6 @@ constexpr int max_temperature_rounds = 20;
 // The gain is a central difference over this relative step of the ratio: small enough that the
 // steepest curve (a strong acid at neutrality) stays near linear, large against the solver's 1e-13.
 constexpr double gain_step = 1e-6;
-// The adiabatic temperature's acceptance, as the unit chemistry library's: H within this many
-// kelvin times the heat capacity of its target; and the Newton steps tried before the bracketed search.
-constexpr double enthalpy_match_kelvin = 1e-6;
-constexpr int max_newton_steps = 8;
 
 // Aeration: O2 from air enters at 25 °C, where as an element in its standard state its enthalpy is
 // zero on the NBS convention the species data use [nbs-1982]; the heat of the oxidation is then the
@@ -90,13 +86,11 @@ void Neutraliser::settle_product(double ratio, double feed_enthalpy, double reag
   product_.add(unit::InletState{0.0, pressure, flows_.size(), flows_});
   const double scale = titration_.reagent_mass() > 0.0 ? ratio * titration_.feed_mass() / titration_.reagent_mass() : 0.0;
   if (adiabatic_) {
-    const double target = feed_enthalpy + scale * reagent_enthalpy;
-    if (!settle_adiabatic_near(target, pressure)) {
-      product_.equilibrate_at_enthalpy(target, pressure,
-                                       "finding the adiabatic outlet temperature at reagent ratio " + number_text(ratio) + " kg/kg",
-                                       PFU_BAD_INLET);
-    }
-    guess_temperature_ = product_.state().temperature;
+    // thermo::solve_at_enthalpy from the product's last state (the last round, or the last pass of
+    // a recycle), its first step sized by the product's last heat capacity (equilibrium_stream.hpp).
+    product_.equilibrate_at_enthalpy(feed_enthalpy + scale * reagent_enthalpy, pressure,
+                                     "finding the adiabatic outlet temperature at reagent ratio " + number_text(ratio) + " kg/kg",
+                                     PFU_BAD_INLET);
   } else {
     product_.equilibrate(outlet_temperature_, pressure,
                          "equilibrating the product at outlet_temperature " + number_text(outlet_temperature_) + " K",
@@ -104,40 +98,10 @@ void Neutraliser::settle_product(double ratio, double feed_enthalpy, double reag
   }
 }
 
-// Newton steps on T from the last adiabatic temperature, each a warm equilibrium at a set T, the
-// heat capacity from a 1 mK step: where H is smooth in T (no phase appearing on the way) this meets
-// the target in two or three solves, against some thirty for a bracketed search over the data's
-// whole range. Accepted, as the bracketed search is, when H misses the target by at most 1e-6 K
-// times the heat capacity; false (leaving the bracketed search to find it) otherwise.
-bool Neutraliser::settle_adiabatic_near(double target, double pressure) {
-  if (!(guess_temperature_ > 0.0)) return false;
-  const double low = system_->minimum_temperature();
-  const double high = system_->maximum_temperature();
-  try {
-    double temperature = std::clamp(guess_temperature_, low, high);
-    const double step = temperature + 1e-3 <= high ? 1e-3 : -1e-3;
-    product_.equilibrate(temperature + step, pressure, "", PFU_BAD_INLET);
-    const double shifted = product_.enthalpy();
-    for (int i = 0; i < max_newton_steps; ++i) {
-      product_.equilibrate(temperature, pressure, "", PFU_BAD_INLET);
-      const double miss = product_.enthalpy() - target;
-      const double heat_capacity = i == 0 ? (shifted - product_.enthalpy()) / step : heat_capacity_;
-      if (i == 0) heat_capacity_ = heat_capacity;
-      if (!(heat_capacity > 0.0) || !std::isfinite(heat_capacity)) return false;
-      if (std::abs(miss) <= enthalpy_match_kelvin * heat_capacity) return true;
-      const double next = temperature - miss / heat_capacity;
-      if (!(next >= low && next <= high)) return false;
-      temperature = next;
-    }
-  } catch (const unit::UnitError&) {
-    return false;
-  }
-  return false;
-}
-
 double Neutraliser::dose_to_target(double feed_enthalpy, double reagent_enthalpy, double pressure) {
   double temperature = adiabatic_ ? feed_.state().temperature : outlet_temperature_;
-  double ratio = 0.0;
+  // The search starts from the last dose found: in a recycle the feed changes little between passes.
+  double ratio = last_ratio_;
   for (int round = 0; round < max_temperature_rounds; ++round) {
     try {
       ratio = titration_.find_ratio(target_ph_, temperature, pressure, max_ratio_, type, ratio);
@@ -147,7 +111,10 @@ double Neutraliser::dose_to_target(double feed_enthalpy, double reagent_enthalpy
     }
     settle_product(ratio, feed_enthalpy, reagent_enthalpy, pressure);
     const double settled = product_.state().temperature;
-    if (!adiabatic_ || std::abs(settled - temperature) <= temperature_settled) return ratio;
+    if (!adiabatic_ || std::abs(settled - temperature) <= temperature_settled) {
+      last_ratio_ = ratio;
+      return ratio;
+    }
     temperature = settled;
   }
   throw unit::UnitError(PFU_NOT_CONVERGED, "unit 'neutraliser': the dose to target_ph " + number_text(target_ph_, 4) +
@@ -189,7 +156,6 @@ void Neutraliser::solve(std::span<const unit::InletState> inlets, std::span<unit
   aeration_.apply(feed_.totals(), aerated_feed_);
   titration_.set_streams(aerated_feed_, reagent_.totals(), mass_flow(*system_, feed_.totals()));
   titration_.reset_count();
-  guess_temperature_ = feed.temperature;
 
   feed_.equilibrate(feed.temperature, feed.pressure, "equilibrating the feed at " + number_text(feed.temperature) + " K",
                     PFU_BAD_INLET);
@@ -226,6 +192,20 @@ void Neutraliser::solve(std::span<const unit::InletState> inlets, std::span<unit
   const double inlet_enthalpy = feed_enthalpy + scale * reagent_enthalpy;
   const double product_enthalpy = product_.enthalpy();
 
+  // Outlets: the equilibrium's phases on the slate, then the gas row moved to the off-gas.
+  product.temperature = out.temperature;
+  product.pressure = pressure;
+  placement_.write(product_.totals(), out, product, warnings);
+  off_gas.temperature = out.temperature;
+  off_gas.pressure = pressure;
+  std::ranges::fill(off_gas.flows, 0.0);
+  const std::span<double> gas_row = product.phase(PFU_GAS_ROW);
+  std::ranges::copy(gas_row, off_gas.phase(PFU_GAS_ROW).begin());
+  std::ranges::fill(gas_row, 0.0);
+  // A recycle's pass before the last reads the outlets alone (unit ABI 1.4): the gain, the curve,
+  // the warnings and the results are for the reporting pass.
+  if (results.outlets_only()) return;
+
   // Gain d(pH)/d(reagent flow) at the operating point, at the outlet temperature.
   double gain = nan();
   if (titration_.reagent_mass() > 0.0) {
@@ -241,17 +221,6 @@ void Neutraliser::solve(std::span<const unit::InletState> inlets, std::span<unit
                        PFU_NOT_CONVERGED);
     }
   }
-
-  // Outlets: the equilibrium's phases on the slate, then the gas row moved to the off-gas.
-  product.temperature = out.temperature;
-  product.pressure = pressure;
-  placement_.write(product_.totals(), out, product, warnings);
-  off_gas.temperature = out.temperature;
-  off_gas.pressure = pressure;
-  std::ranges::fill(off_gas.flows, 0.0);
-  const std::span<double> gas_row = product.phase(PFU_GAS_ROW);
-  std::ranges::copy(gas_row, off_gas.phase(PFU_GAS_ROW).begin());
-  std::ranges::fill(gas_row, 0.0);
 
   // Warnings: the shared ones about the product and the models, then the neutraliser's own.
   inlet_phases_.gas_amount = scale * dry_gas;

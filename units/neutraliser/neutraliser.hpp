@@ -113,6 +113,8 @@ class Neutraliser {
                    "pH of feed and reagent at equilibrium at the outlet temperature, against kg of reagent per kg of feed")};
 
   std::size_t series_length(std::size_t) const { return curve_points_; }
+  // Passes of a recycle before the last need the outlets alone (unit ABI 1.4).
+  static constexpr bool outlets_only_passes = true;
 
   Neutraliser(const unit::Parameters& parameters, const unit::Slate& slate);
 
@@ -123,7 +125,6 @@ class Neutraliser {
   // The dose (kg/kg) and the product state for the mode; leaves the product in product_.
   double dose_to_target(double feed_enthalpy, double reagent_enthalpy, double pressure);
   void settle_product(double ratio, double feed_enthalpy, double reagent_enthalpy, double pressure);
-  bool settle_adiabatic_near(double target, double pressure);
   void warn_about_control(double ratio, double gain, double pressure, unit::Warnings& warnings);
   void fill_curve(double ratio, double pressure, unit::Series& curve);
 
@@ -151,8 +152,7 @@ class Neutraliser {
   FerrousAeration aeration_;
   std::vector<double> aerated_feed_;  // the feed's totals after aeration (a copy without it)
   std::vector<double> flows_;  // scratch: the product's totals as one aqueous row
-  double guess_temperature_ = 0.0;  // K: where the next adiabatic search starts
-  double heat_capacity_ = 0.0;      // W/K: of the product, from the first Newton step
+  double last_ratio_ = 0.0;  // kg/kg: the last dose to target_ph, where the next search starts
 };
 
 }  // namespace protonflow::units

@@ -184,10 +184,12 @@ Scrubber::SumpAnswer Scrubber::solve_with_sump(const ColumnSpecification& specif
   bool raises = true;  // the reagent raises the pH (a base), as the unreachable setpoint said
 
   // The unknowns x: the recirculated liquor per kg (mol/kg per component) and its temperature.
-  // A cold start: fresh water.
+  // From the last steady recirculation (in a recycle the feeds change little from one pass to the
+  // next), or cold, from fresh water.
   std::vector<double> x(count + 1, 0.0), g(count + 1), x_last, g_last;
   x[water] = 1.0 / system.component_molar_mass(water);
   x[count] = fresh_water_temperature_;
+  if (last_recirculation_.size() == x.size()) x = last_recirculation_;
   SumpAnswer answer;
   for (long pass = 1; pass <= sump_passes; ++pass) {
     for (std::size_t c = 0; c < count; ++c) feeds.liquid[c] = recirculation_ * x[c];
@@ -234,6 +236,7 @@ Scrubber::SumpAnswer Scrubber::solve_with_sump(const ColumnSpecification& specif
       // balances close to round-off, the bleed's composition is the sump's to the tolerance.
       answer.bleed.assign(count, 0.0);
       for (std::size_t c = 0; c < count; ++c) answer.bleed[c] = std::max(0.0, answer.mix.totals[c] - feeds.liquid[c]);
+      if (dose != SumpDose::most) last_recirculation_ = g;
       if (dose == SumpDose::most) {
         highest_ph = answer.mix.state.ph;
         throw unit::UnitError(PFU_INVALID_PARAMETER,
@@ -372,6 +375,10 @@ void Scrubber::solve(std::span<const unit::InletState> inlets, std::span<unit::O
   gas_out.pressure = specification.pressure;
   liquor_out.temperature = sump ? sump->mix.temperature : profile.temperature.back();
   liquor_out.pressure = specification.pressure;
+  // A recycle's pass before the last reads the outlets alone (unit ABI 1.4): the search for the
+  // stages an emission limit needs, the profiles, the results and the warnings are for the
+  // reporting pass.
+  if (results.outlets_only()) return;
 
   // Results per gas of the trade.
   double gas_out_total = 0.0;

@@ -133,6 +133,8 @@ class Scrubber {
       unit::series("stage_liquid_h2s", "stage", "1", "molality", "mol/kg", most_stages, "H2S absorbed in the liquor leaving each stage, all its species, per kg water"),
       unit::series("stage_liquid_co2", "stage", "1", "molality", "mol/kg", most_stages, "CO2 absorbed in the liquor leaving each stage, all its species, per kg water")};
   std::size_t series_length(std::size_t) const { return stages_; }
+  // Passes of a recycle before the last need the outlets alone (unit ABI 1.4).
+  static constexpr bool outlets_only_passes = true;
 
   Scrubber(const unit::Parameters& parameters, const unit::Slate& slate);
 
@@ -169,6 +171,7 @@ class Scrubber {
   std::unique_ptr<ChemistryStageModel> model_;
   std::unique_ptr<Sump> sump_;      // with recirculation only
   std::map<std::size_t, ColumnProfile> previous_profiles_;  // the last answer at each stage count solved
+  std::vector<double> last_recirculation_;  // the last steady recirculated liquor (mol/kg per component) and its T (K)
 };
 
 }  // namespace protonflow::scrubber

@@ -6,6 +6,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <optional>
 
 namespace protonflow::scrubber {
 
@@ -13,10 +14,9 @@ namespace {
 
 using units::number_text;
 
-// The sump's temperature is found to 1e-9 K (far below any thermometer) by secant steps on its
-// enthalpy, which is smooth and nearly linear in T for a liquor without solids.
+// The sump's temperature is found to 1e-9 K (far below any thermometer; thermo::solve_at_enthalpy's
+// bracket); dose and temperature count as settled when the temperature moves by no more.
 constexpr double temperature_match = 1e-9;
-constexpr int most_temperature_steps = 40;
 // Dose and temperature are found in turn (the dose at a temperature, the temperature of that
 // dose) until the temperature stops moving; the heat of neutralisation couples them weakly.
 constexpr int most_dose_passes = 30;
@@ -28,44 +28,46 @@ constexpr double displacement_margin = 1e-12;
 
 Sump::Sump(const thermo::ChemicalSystem& liquid_system)
     : system_(&liquid_system),
-      water_(liquid_system.index_of_component("H2O")),
+      water_index_(liquid_system.index_of_component("H2O")),
       titration_(liquid_system),
       solver_(liquid_system),
+      water_(liquid_system),
+      bottoms_(liquid_system),
+      make_up_(liquid_system),
+      reagent_(liquid_system),
       feed_(liquid_system.components().size(), 0.0),
       water_flow_(liquid_system.components().size(), 0.0) {
   titration_.name_parameters("sump_ph", "the most reagent the flows allow, in");
 }
 
-double Sump::enthalpy_of(std::span<const double> totals, double temperature, double pressure, thermo::Speciation* kept) {
-  if (kept != nullptr) *kept = thermo::Speciation{};
+double Sump::enthalpy_of(InflowEnthalpy& inflow, std::span<const double> totals, double temperature, double pressure) {
+  if (std::ranges::equal(totals, inflow.totals) && temperature == inflow.temperature && pressure == inflow.pressure)
+    return inflow.enthalpy;
+  inflow.totals.assign(totals.begin(), totals.end());
+  inflow.temperature = temperature;
+  inflow.pressure = pressure;
+  inflow.state = thermo::Speciation{};
+  inflow.enthalpy = 0.0;
   if (std::ranges::all_of(totals, [](double n) { return n == 0.0; })) return 0.0;
-  ++solves_;
-  thermo::Speciation& state = kept != nullptr ? *kept : scratch_;
-  solver_.solve(temperature, pressure, totals, {}, state);
-  return thermo::state_enthalpy(*system_, state);
+  try {
+    inflow.solver.solve(temperature, pressure, totals, {}, inflow.state);
+    inflow.enthalpy = thermo::state_enthalpy(*system_, inflow.state);
+  } catch (...) {
+    inflow.totals.clear();  // nothing kept from a failed solve
+    throw;
+  }
+  return inflow.enthalpy;
 }
 
-// T where the enthalpy of mix_.totals is the target, by secant steps from the guess; leaves the
-// equilibrium at that T in mix_.state.
+// T where the enthalpy of mix_.totals is the target, by thermo::solve_at_enthalpy from the guess, its
+// first step sized by the liquor's last heat capacity; leaves the equilibrium at that T in
+// mix_.state.
 double Sump::temperature_at(double enthalpy, double pressure, double guess) {
-  const auto miss = [&](double temperature) {
-    ++solves_;
-    solver_.solve(temperature, pressure, mix_.totals, {}, mix_.state);
-    return thermo::state_enthalpy(*system_, mix_.state) - enthalpy;
-  };
-  double t0 = guess, f0 = miss(t0);
-  double t1 = guess + 1.0, f1 = miss(t1);
-  for (int step = 0; step < most_temperature_steps; ++step) {
-    if (f1 == f0) break;
-    const double t2 = t1 - f1 * (t1 - t0) / (f1 - f0);
-    t0 = t1;
-    f0 = f1;
-    t1 = t2;
-    f1 = miss(t1);
-    if (std::abs(t1 - t0) <= temperature_match) return t1;
-  }
-  throw unit::UnitError(PFU_NOT_CONVERGED, "unit 'scrubber': the sump's temperature was not found from its enthalpy: " +
-                                               number_text(f1, 4) + " W off at " + number_text(t1, 8) + " K");
+  const double mass = units::mass_flow(*system_, mix_.totals);
+  const double heat_capacity = thermo::solve_at_enthalpy(solver_, enthalpy, pressure, mix_.totals, {}, mix_.state, nullptr,
+                                                         {guess, heat_capacity_per_mass_ * mass});
+  if (heat_capacity > 0.0 && std::isfinite(heat_capacity) && mass > 0.0) heat_capacity_per_mass_ = heat_capacity / mass;
+  return mix_.state.temperature;
 }
 
 const SumpMix& Sump::mix(SumpInflow bottoms, SumpInflow make_up, SumpInflow reagent, double fresh_water_temperature,
@@ -86,13 +88,13 @@ const SumpMix& Sump::mix(SumpInflow bottoms, SumpInflow make_up, SumpInflow reag
   }
   // The enthalpy of each inflow at its own temperature, and of a kg/s of fresh water.
   std::ranges::fill(water_flow_, 0.0);
-  water_flow_[water_] = 1.0 / system_->component_molar_mass(water_);
-  const double water_enthalpy = enthalpy_of(water_flow_, fresh_water_temperature, pressure);
-  const double inflow_enthalpy = enthalpy_of(bottoms.totals, bottoms.temperature, pressure) +
-                                 enthalpy_of(make_up.totals, make_up.temperature, pressure, &mix_.make_up_state);
-  const double reagent_enthalpy =
-      reagent_mass > 0.0 ? enthalpy_of(reagent.totals, reagent.temperature, pressure, &mix_.reagent_state) : 0.0;
-  if (reagent_mass == 0.0) mix_.reagent_state = thermo::Speciation{};
+  water_flow_[water_index_] = 1.0 / system_->component_molar_mass(water_index_);
+  const double water_enthalpy = enthalpy_of(water_, water_flow_, fresh_water_temperature, pressure);
+  const double inflow_enthalpy = enthalpy_of(bottoms_, bottoms.totals, bottoms.temperature, pressure) +
+                                 enthalpy_of(make_up_, make_up.totals, make_up.temperature, pressure);
+  mix_.make_up_state = make_up_.state;
+  const double reagent_enthalpy = reagent_mass > 0.0 ? enthalpy_of(reagent_, reagent.totals, reagent.temperature, pressure) : 0.0;
+  mix_.reagent_state = reagent_mass > 0.0 ? reagent_.state : thermo::Speciation{};
 
   mix_.totals.assign(count, 0.0);
   mix_.setpoint_passed = false;
@@ -118,7 +120,11 @@ const SumpMix& Sump::mix(SumpInflow bottoms, SumpInflow make_up, SumpInflow reag
   for (int pass = 0; pass < most_dose_passes; ++pass) {
     double ratio = most_ratio;
     if (dose == SumpDose::setpoint) {
-      if (pass == 0) {
+      // From the last dose (the last pass of the column, or of a recycle) where the setpoint is
+      // bracketed near it: reachable and not passed, so the ends of the curve need no solving.
+      std::optional<double> near;
+      if (pass == 0 && last_ratio_ > 0.0) near = titration_.find_ratio_near(setpoint, temperature, pressure, most_ratio, "scrubber", last_ratio_);
+      if (pass == 0 && !near) {
         const double start = titration_.ph_at(0.0, temperature, pressure);
         const double end = titration_.ph_at(most_ratio, temperature, pressure);
         const bool raises = end > start;
@@ -131,7 +137,7 @@ const SumpMix& Sump::mix(SumpInflow bottoms, SumpInflow make_up, SumpInflow reag
       if (mix_.setpoint_passed) {
         ratio = 0.0;
       } else {
-        ratio = titration_.find_ratio(setpoint, temperature, pressure, most_ratio, "scrubber", last_ratio_);
+        ratio = near ? *near : titration_.find_ratio(setpoint, temperature, pressure, most_ratio, "scrubber", pass == 0 ? 0.0 : last_ratio_);
         last_ratio_ = ratio;
       }
     }

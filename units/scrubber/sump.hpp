@@ -16,6 +16,7 @@
 #include <protonflow/thermo/equilibrium_solver.hpp>
 #include <protonflow/units/titration.hpp>
 
+#include <limits>
 #include <span>
 #include <stdexcept>
 #include <vector>
@@ -72,23 +73,37 @@ class Sump {
   const SumpMix& mix(SumpInflow bottoms, SumpInflow make_up, SumpInflow reagent, double fresh_water_temperature,
                      double outflow_mass, double pressure, SumpDose dose, double setpoint, double temperature_guess);
 
-  long solves() const noexcept { return solves_ + titration_.solves(); }
 
  private:
-  // The enthalpy (W) of totals at their equilibrium at T, P; the state left in kept, if given.
-  double enthalpy_of(std::span<const double> totals, double temperature, double pressure, thermo::Speciation* kept = nullptr);
+  // One inflow's equilibrium and enthalpy, by its own solver so that each starts from its own last
+  // state, and kept while the inflow is unchanged (the make-up, the reagent and the fresh water are
+  // through the column-and-sump passes of a solve).
+  struct InflowEnthalpy {
+    explicit InflowEnthalpy(const thermo::ChemicalSystem& system) : solver(system) {}
+    thermo::EquilibriumSolver solver;
+    std::vector<double> totals;  // of the state kept; empty: none
+    double temperature = 0.0;
+    double pressure = 0.0;
+    double enthalpy = 0.0;       // W
+    thermo::Speciation state;    // empty for an inflow of nothing
+  };
+  // The enthalpy (W) of totals at their equilibrium at T, P, kept in inflow.
+  double enthalpy_of(InflowEnthalpy& inflow, std::span<const double> totals, double temperature, double pressure);
   double temperature_at(double enthalpy, double pressure, double guess);
 
   const thermo::ChemicalSystem* system_;
-  std::size_t water_;                 // index of H2O among the components
+  std::size_t water_index_;           // index of H2O among the components
   units::Titration titration_;        // the dose search at constant outflow
-  thermo::EquilibriumSolver solver_;  // the product and the inflows' enthalpies
-  thermo::Speciation scratch_;
+  thermo::EquilibriumSolver solver_;  // the sump's liquor
+  InflowEnthalpy water_;              // a kg/s of fresh water
+  InflowEnthalpy bottoms_;            // the column's spent liquor
+  InflowEnthalpy make_up_;
+  InflowEnthalpy reagent_;
+  double heat_capacity_per_mass_ = std::numeric_limits<double>::quiet_NaN();  // J/(K kg) of the liquor, last found
   std::vector<double> feed_;          // bottoms + make-up + the fresh water without reagent
   std::vector<double> water_flow_;    // that fresh water alone
   SumpMix mix_;
   double last_ratio_ = 0.0;           // hint for the next dose search
-  long solves_ = 0;
 };
 
 }  // namespace protonflow::scrubber

@@ -23,7 +23,7 @@ extern "C" {
  * a minor only appends fields at the ends of structs, so each side reads the fields both know.
  * What a later minor adds that a reader must understand is announced so a reader can refuse it by
  * name: port flags it does not know, capabilities marked required (docs/unit-abi.md §2). */
-enum { PFU_ABI_MAJOR = 1, PFU_ABI_MINOR = 3 };
+enum { PFU_ABI_MAJOR = 1, PFU_ABI_MINOR = 4 };
 
 /* Opens every struct, so a reader can check the version and the size before reading further. */
 typedef struct pfu_header {
@@ -128,7 +128,7 @@ typedef struct pfu_instance pfu_instance;
  * refuses the class, naming the capability. New features come as new ids, so neither side needs
  * the other's minor to know them. */
 enum { PFU_CAPABILITY_REQUIRED = 1 };
-enum { PFU_CAPABILITY_SERIES = 1 };
+enum { PFU_CAPABILITY_SERIES = 1, PFU_CAPABILITY_OUTLETS_ONLY = 2 };
 
 typedef struct pfu_capability {
   pfu_header header; /* struct_size: of the whole capability struct it opens */
@@ -148,6 +148,18 @@ typedef struct pfu_series_capability {
   const pfu_series* series;      /* stepped through by each element's struct_size */
   pfu_series_length_fn length;   /* NULL: every instance fills up to max_points */
 } pfu_series_capability;
+
+/* PFU_CAPABILITY_OUTLETS_ONLY (since 1.4): the class honours PFU_SOLVE_OUTLETS_ONLY, so it may skip
+ * on such a solve what only a report reads (results, series, warnings, searches such as a stage
+ * count for a limit). The capability is a bare pfu_capability; a host that does not know it passes
+ * over it and the unit computes everything at every solve, as before. */
+
+/* Flags of one solve (pfu_solve_call.flags, since 1.4). A module refuses a solve that sets a flag
+ * outside PFU_SOLVE_KNOWN_FLAGS of its own header (PFU_INVALID_ARGUMENT, naming the flags). */
+enum { PFU_SOLVE_OUTLETS_ONLY = 1 }; /* an iteration's pass: only the outlets will be read; set only for a
+                                        class with PFU_CAPABILITY_OUTLETS_ONLY, whose results, series and
+                                        warnings are then unspecified */
+enum { PFU_SOLVE_KNOWN_FLAGS = PFU_SOLVE_OUTLETS_ONLY };
 
 /* Where a solve writes one series: owned by the caller, like every buffer. */
 typedef struct pfu_series_buffer {
@@ -218,6 +230,8 @@ typedef struct pfu_solve_call {
   size_t warnings_capacity;
   char* message;
   size_t message_capacity;
+  /* since 1.4; a call of 1.3 ends before it, and reads as no flags */
+  uint32_t flags;                        /* PFU_SOLVE_* bits */
 } pfu_solve_call;
 
 /* The solve of 1.3 on; inlets are never written; the warnings and message as for pfu_solve_fn. */

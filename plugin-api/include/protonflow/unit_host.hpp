@@ -113,6 +113,7 @@ struct UnitClassInfo {
   std::vector<ParameterInfo> parameters;
   std::vector<ResultInfo> results;
   std::vector<SeriesInfo> series;  // empty for modules older than ABI 1.3
+  bool outlets_only = false;       // honours PFU_SOLVE_OUTLETS_ONLY (ABI 1.4 capability)
 
   // Ports of each direction, not streams: a list port counts once.
   std::size_t inlet_count() const { return static_cast<std::size_t>(std::ranges::count(ports, true, &PortInfo::inlet)); }
@@ -433,6 +434,8 @@ inline std::shared_ptr<const LoadedModule> load(const std::filesystem::path& fil
           info.series.push_back(read_series(s, name, where));
         }
         series_length = series.length;
+      } else if (capability.id == PFU_CAPABILITY_OUTLETS_ONLY) {
+        info.outlets_only = true;
       } else if ((capability.flags & PFU_CAPABILITY_REQUIRED) != 0) {
         throw LoadError(name + ": " + where + " needs capability " + label + " (id " + std::to_string(capability.id) +
                         "), which unit ABI " + version_text(PFU_ABI_MAJOR, PFU_ABI_MINOR) +
@@ -509,9 +512,11 @@ class Instance {
 
   // Solves once with the streams of each port one after another, port by port: inlet_counts[p]
   // streams for the p-th inlet port (list ports take their bounds, other ports one), likewise for
-  // outlets. Throws std::invalid_argument for counts the class does not take.
+  // outlets. Throws std::invalid_argument for counts the class does not take. With outlets_only
+  // (a pass of an iteration whose outlets alone are read), a class with the outlets-only
+  // capability may leave its results, series and warnings out; any other class solves in full.
   Solution solve(std::span<const StreamState> inlets, std::span<const std::uint32_t> inlet_counts,
-                 std::span<StreamState> outlets, std::span<const std::uint32_t> outlet_counts) {
+                 std::span<StreamState> outlets, std::span<const std::uint32_t> outlet_counts, bool outlets_only = false) {
     const UnitClassInfo& info = unit_class();
     check_counts(true, inlet_counts, inlets.size());
     check_counts(false, outlet_counts, outlets.size());
@@ -524,7 +529,7 @@ class Instance {
                                   detail::version_text(module_->abi_major, module_->abi_minor) +
                                   ", which passes one stream per port");
     }
-    return solve_streams(inlets, outlets);
+    return solve_streams(inlets, outlets, outlets_only && info.outlets_only ? static_cast<std::uint32_t>(PFU_SOLVE_OUTLETS_ONLY) : 0u);
   }
 
  private:
@@ -561,7 +566,7 @@ class Instance {
     }
   }
 
-  Solution solve_streams(std::span<const StreamState> inlets, std::span<StreamState> outlets) {
+  Solution solve_streams(std::span<const StreamState> inlets, std::span<StreamState> outlets, std::uint32_t flags = 0) {
     const UnitClassInfo& info = unit_class();
     const auto state = [&](const StreamState& stream) {
       // The ABI promises that a module never writes through an inlet's flows.
@@ -617,7 +622,8 @@ class Instance {
                                   warnings_.data(),
                                   warnings_.size(),
                                   message_.data(),
-                                  message_.size()};
+                                  message_.size(),
+                                  flags};
         status = functions.solve_call(handle_, &call);
       } else {
         status = functions.solve(handle_, inlet_pointers_.data(), static_cast<std::uint32_t>(inlet_pointers_.size()),

@@ -18,7 +18,9 @@
 // "feed")) gives them. A class that fills series declares `static constexpr std::array series{...}`
 // (unit::series) and may give `std::size_t series_length(std::size_t index) const` to fix, at
 // create, how many points an instance fills (else up to max_points); solve fills them through
-// results.series("name").add(x, y).
+// results.series("name").add(x, y). A class that declares `static constexpr bool outlets_only_passes
+// = true` (ABI 1.4) is told by results.outlets_only() when the host will read its outlets alone (a
+// recycle's passes before the last) and may then skip its results, series and searches.
 //
 // The boundary checks parameters against their declarations (kind, bounds, choices, required)
 // and inlets against their ports (shape, finite, positive T and P, non-negative flows, phases)
@@ -242,8 +244,13 @@ class Series {
 // The declared results of one solve, in declaration order; NaN marks one that does not apply.
 class Results {
  public:
-  Results(std::span<const pfu_result> declared, std::span<double> values, std::span<Series> series = {})
-      : declared_(declared), values_(values), series_(series) {}
+  Results(std::span<const pfu_result> declared, std::span<double> values, std::span<Series> series = {},
+          bool outlets_only = false)
+      : declared_(declared), values_(values), series_(series), outlets_only_(outlets_only) {}
+
+  // True on a solve whose results, series and warnings the host will not read (PFU_SOLVE_OUTLETS_ONLY,
+  // given only to a class that declares outlets_only_passes): what only they need may be skipped.
+  bool outlets_only() const noexcept { return outlets_only_; }
 
   // A declared series by name; throws std::logic_error for an undeclared one.
   Series& series(std::string_view name) const {
@@ -269,6 +276,7 @@ class Results {
   std::span<const pfu_result> declared_;
   std::span<double> values_;
   std::span<Series> series_;
+  bool outlets_only_ = false;
 };
 
 // Warnings of one solve, one line each: what the host prints for an engineer to review.
@@ -313,6 +321,16 @@ constexpr std::span<const pfu_result> declared_results() {
     return T::results;
   } else {
     return {};
+  }
+}
+
+// Whether the class honours PFU_SOLVE_OUTLETS_ONLY (ABI 1.4).
+template <class T>
+constexpr bool declares_outlets_only() {
+  if constexpr (requires { { T::outlets_only_passes } -> std::convertible_to<bool>; }) {
+    return T::outlets_only_passes;
+  } else {
+    return false;
   }
 }
 
@@ -611,7 +629,7 @@ void solve_streams(Instance<T>& instance, const pfu_stream_state* const* inlets,
                    const std::uint32_t* inlet_counts, pfu_stream_state* const* outlets, std::uint32_t outlet_count,
                    const std::uint32_t* outlet_counts, double* results, std::uint32_t result_count,
                    pfu_series_buffer* const* series, std::uint32_t series_count, char* warnings,
-                   std::size_t warnings_capacity) {
+                   std::size_t warnings_capacity, bool outlets_only = false) {
   constexpr std::span<const pfu_result> declared = declared_results<T>();
   constexpr std::span<const pfu_series> declared_curves = declared_series<T>();
   if (result_count != declared.size() || (series_count != 0 && series_count != declared_curves.size())) {
@@ -687,7 +705,7 @@ void solve_streams(Instance<T>& instance, const pfu_stream_state* const* inlets,
     buffer->count = 0;
     instance.series[i] = Series(declared_curves[i].name, std::span<double>(buffer->x, length), std::span<double>(buffer->y, length));
   }
-  Results named(declared, values, std::span<Series>(instance.series));
+  Results named(declared, values, std::span<Series>(instance.series), outlets_only && declares_outlets_only<T>());
 
   instance.unit.solve(std::span<const InletState>(instance.inlets), std::span<OutletState>(instance.outlets), named,
                       instance.warnings);
@@ -742,10 +760,14 @@ pfu_status solve(pfu_instance* handle, const pfu_stream_state* const* inlets, st
   });
 }
 
-// The solve of ABI 1.3: list ports and series, arguments in one extensible struct.
+// The size of a solve call of ABI 1.3, the first minor that had one: it ends before flags.
+inline constexpr std::size_t solve_call_size_1_3 = offsetof(pfu_solve_call, flags);
+
+// The solve of ABI 1.3 on: list ports and series, arguments in one extensible struct; the flags
+// of 1.4 where the caller's struct has them.
 template <Unit T>
 pfu_status solve_call(pfu_instance* handle, const pfu_solve_call* call) noexcept {
-  if (call == nullptr || call->header.abi_major != PFU_ABI_MAJOR || call->header.struct_size < sizeof(pfu_solve_call)) {
+  if (call == nullptr || call->header.abi_major != PFU_ABI_MAJOR || call->header.struct_size < solve_call_size_1_3) {
     return PFU_INVALID_ARGUMENT;  // nowhere to say why: the message buffer is in the call
   }
   write_text(call->message, call->message_capacity, {});
@@ -755,9 +777,18 @@ pfu_status solve_call(pfu_instance* handle, const pfu_solve_call* call) noexcept
     if (call->inlet_counts == nullptr || call->outlet_counts == nullptr) {
       throw UnitError(PFU_INVALID_ARGUMENT, "solve was given no stream counts per port");
     }
+    const std::uint32_t flags = call->header.struct_size >= offsetof(pfu_solve_call, flags) + sizeof(call->flags) ? call->flags : 0;
+    if ((flags & ~static_cast<std::uint32_t>(PFU_SOLVE_KNOWN_FLAGS)) != 0) {
+      char hex[16] = {};
+      std::to_chars(hex, hex + sizeof hex - 1, flags & ~static_cast<std::uint32_t>(PFU_SOLVE_KNOWN_FLAGS), 16);
+      throw UnitError(PFU_INVALID_ARGUMENT, std::string("unit '") + T::type + "': solve flags 0x" + hex + " are unknown to unit ABI " +
+                                                std::to_string(PFU_ABI_MAJOR) + "." + std::to_string(PFU_ABI_MINOR) +
+                                                "; the module needs rebuilding against a newer header");
+    }
     solve_streams(*reinterpret_cast<Instance<T>*>(handle), call->inlets, call->inlet_count, call->inlet_counts,
                   call->outlets, call->outlet_count, call->outlet_counts, call->results, call->result_count,
-                  call->series, call->series_count, call->warnings, call->warnings_capacity);
+                  call->series, call->series_count, call->warnings, call->warnings_capacity,
+                  (flags & PFU_SOLVE_OUTLETS_ONLY) != 0);
   });
 }
 
@@ -831,8 +862,12 @@ struct Capabilities {
       static_cast<std::uint32_t>(series.size()),
       series.data(),
       &series_length<T>};
-  static constexpr std::array<const pfu_capability*, 1> list{&series_capability.capability};
-  static constexpr std::uint32_t count = series.empty() ? 0 : 1;
+  static constexpr pfu_capability outlets_only_capability{header_for<pfu_capability>(), PFU_CAPABILITY_OUTLETS_ONLY, 0,
+                                                         "outlets only"};
+  static constexpr std::array<const pfu_capability*, 2> both{&series_capability.capability, &outlets_only_capability};
+  static constexpr std::array<const pfu_capability*, 1> outlets_only{&outlets_only_capability};
+  static constexpr std::uint32_t count = (series.empty() ? 0 : 1) + (declares_outlets_only<T>() ? 1 : 0);
+  static constexpr const pfu_capability* const* list = series.empty() ? outlets_only.data() : both.data();
 };
 
 template <Unit T>
@@ -856,7 +891,7 @@ constexpr pfu_unit_class describe() {
           &destroy<T>,
           &solve_call<T>,
           Capabilities<T>::count,
-          Capabilities<T>::count == 0 ? nullptr : Capabilities<T>::list.data()};
+          Capabilities<T>::count == 0 ? nullptr : Capabilities<T>::list};
 }
 
 }  // namespace detail

@@ -176,6 +176,8 @@ class Blender {
       : profile_points_(static_cast<std::size_t>(parameters.number("profile_points"))) {}
 
   std::size_t series_length(std::size_t index) const { return index == 0 ? series[0].max_points : profile_points_; }
+  // On a pass whose outlets alone are read it fills no series and no result.
+  static constexpr bool outlets_only_passes = true;
 
   void solve(std::span<const unit::InletState> inlets, std::span<unit::OutletState> outlets, unit::Results& results,
              unit::Warnings&) const {
@@ -193,7 +195,7 @@ class Blender {
       flow += n;
       weighted += n * inlet.temperature;
       pressure = std::min(pressure, inlet.pressure);
-      blend.add(flow, flow > 0.0 ? weighted / flow : inlet.temperature);
+      if (!results.outlets_only()) blend.add(flow, flow > 0.0 ? weighted / flow : inlet.temperature);
     }
     const double temperature = flow > 0.0 ? weighted / flow : feeds[0].temperature;
     const double each = 1.0 / static_cast<double>(shares.size());
@@ -205,6 +207,7 @@ class Blender {
         for (std::size_t k = 0; k < out.flows.size(); ++k) out.flows[k] += inlet.flows[k] * each;
       }
     }
+    if (results.outlets_only()) return;
     unit::Series& profile = results.series("profile");
     for (std::size_t i = 0; i < profile.capacity(); ++i) {
       const double fraction = static_cast<double>(i) / static_cast<double>(profile.capacity() - 1);

@@ -22,9 +22,11 @@ namespace {
 constexpr double ph_match = 1e-9;
 constexpr double relative_bracket = 1e-13;
 constexpr std::uintmax_t max_search_steps = 100;
-// The bracket tried around a hint, relative: a few kelvin of adiabatic heating move the dose of a
-// steep curve by far less.
+// The bracket tried around a hint, relative: a few kelvin of adiabatic heating, or a recycle pass
+// near its answer, move the dose of a steep curve by far less. It widens sixteenfold at a time
+// towards the target where that is not so.
 constexpr double hint_width = 1e-4;
+constexpr double hint_widening = 16.0;
 
 }  // namespace
 
@@ -93,15 +95,38 @@ double Titration::reagent_ph(double temperature, double pressure) {
   return reagent_state_.ph;
 }
 
+std::optional<double> Titration::find_ratio_near(double target, double temperature, double pressure, double ratio_max,
+                                                 const std::string& unit_type, double hint) {
+  if (!(hint > 0.0 && hint <= ratio_max)) return std::nullopt;
+  double width = hint_width;
+  double low = hint * (1.0 - width);
+  double high = std::min(hint * (1.0 + width), ratio_max);
+  double low_miss = ph_at(low, temperature, pressure) - target;
+  double high_miss = ph_at(high, temperature, pressure) - target;
+  while ((low_miss < 0.0) == (high_miss < 0.0)) {
+    // Same sign at both ends: the target lies beyond the end nearer to it.
+    const bool beyond_high = std::abs(high_miss) < std::abs(low_miss);
+    width *= hint_widening;
+    if (beyond_high) {
+      if (high == ratio_max) return std::nullopt;
+      low = high;
+      low_miss = high_miss;
+      high = std::min(hint * (1.0 + width), ratio_max);
+      high_miss = ph_at(high, temperature, pressure) - target;
+    } else {
+      if (width >= 1.0) return std::nullopt;  // down to x = 0: the ends' checks decide
+      high = low;
+      high_miss = low_miss;
+      low = hint * (1.0 - width);
+      low_miss = ph_at(low, temperature, pressure) - target;
+    }
+  }
+  return search(target, temperature, pressure, low, high, low_miss, high_miss, unit_type);
+}
+
 double Titration::find_ratio(double target, double temperature, double pressure, double ratio_max,
                              const std::string& unit_type, double hint) {
-  if (hint > 0.0) {
-    const double low = hint * (1.0 - hint_width);
-    const double high = std::min(hint * (1.0 + hint_width), ratio_max);
-    const double low_miss = ph_at(low, temperature, pressure) - target;
-    const double high_miss = ph_at(high, temperature, pressure) - target;
-    if ((low_miss < 0.0) != (high_miss < 0.0)) return search(target, temperature, pressure, low, high, low_miss, high_miss, unit_type);
-  }
+  if (const std::optional<double> near = find_ratio_near(target, temperature, pressure, ratio_max, unit_type, hint)) return *near;
   const std::string prefix = "unit '" + unit_type + "': " + target_name_ + " " + number_text(target, 4) + ": ";
   const double start = ph_at(0.0, temperature, pressure);
   if (std::abs(start - target) <= ph_match) return 0.0;

@@ -36,8 +36,10 @@ struct TemperatureEstimate {
 // changes sign; without one, or where that search meets the end of the data's range or a state that
 // does not solve, the bracket is the whole range. Either way T is bracketed to 1e-9 K. Throws
 // ThermoError(out_of_range) when the enthalpy lies outside the data's temperature range,
-// ConvergenceError when a speciation fails.
-void solve_at_enthalpy(EquilibriumSolver& solver, double enthalpy, double pressure, std::span<const double> amounts,
+// ConvergenceError when a speciation fails. Returns the heat capacity of the state (J/K) as the
+// slope of H across the first bracket, for the estimate of a next search nearby (NaN where the
+// estimate hit the target exactly).
+double solve_at_enthalpy(EquilibriumSolver& solver, double enthalpy, double pressure, std::span<const double> amounts,
                        std::span<const double> open_gas_pressures, Speciation& out,
                        const ExcessEnthalpyModel* excess = nullptr, TemperatureEstimate estimate = {});
 

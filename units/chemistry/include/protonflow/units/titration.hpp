@@ -20,6 +20,7 @@
 #include <protonflow/thermo/equilibrium_solver.hpp>
 
 #include <cstddef>
+#include <optional>
 #include <span>
 #include <string>
 #include <vector>
@@ -65,10 +66,18 @@ class Titration {
   // protonflow::unit::UnitError (PFU_INVALID_PARAMETER) when the target lies outside
   // [pH(0), pH(ratio_max)], saying why: the feed is already past it, the reagent cannot reach it
   // (naming the reagent's own pH, the highest or lowest it can give), or ratio_max is too small.
-  // A hint (a ratio found at a nearby temperature) is tried first: where pH(hint ± 0.01 %) brackets
-  // the target, the search runs there and skips the ends of [0, ratio_max].
+  // A hint (a ratio found at a nearby temperature, or at the last pass of a recycle) is tried
+  // first, as find_ratio_near: where that brackets the target the ends of [0, ratio_max] are
+  // never solved.
   double find_ratio(double target, double temperature, double pressure, double ratio_max, const std::string& unit_type,
                     double hint = 0.0);
+  // The same search from a hint alone: the bracket hint ± 0.01 %, widened sixteenfold towards the
+  // target each time pH does not change sign across it, inside (0, ratio_max]. Nothing when the
+  // widening reaches 0 or ratio_max without a sign change (then only find_ratio can say why).
+  // pH(x) is monotone in x (a titration curve), so a bracket found here means the target is
+  // reachable and not already passed at x = 0.
+  std::optional<double> find_ratio_near(double target, double temperature, double pressure, double ratio_max,
+                                        const std::string& unit_type, double hint);
 
   long solves() const noexcept { return solves_; }
   void reset_count() noexcept { solves_ = 0; }
