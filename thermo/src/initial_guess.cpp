@@ -62,14 +62,16 @@ void prepare_ideal_dual(const GuessProblem& p, DualWorkspace& w) {
           w.products.push_back({w.entries[e].variable * k + w.entries[f].variable, w.entries[e].coefficient * w.entries[f].coefficient});
     w.first_product.push_back(w.products.size());
   }
-  w.uses.clear();
-  w.first_use.assign(1, 0);
-  for (std::size_t r = 0; r < k; ++r) {
-    for (std::size_t j = 0; j < solutes; ++j)
-      for (std::size_t e = w.first_entry[j]; e < w.first_entry[j + 1]; ++e)
-        if (w.entries[e].variable == r) w.uses.push_back({j, w.entries[e].coefficient});
-    w.first_use.push_back(w.uses.size());
-  }
+  // The same entries by variable: counted, then placed (first_use[r + 1] runs as the next free place).
+  w.first_use.assign(k + 1, 0);
+  for (const auto& entry : w.entries) ++w.first_use[entry.variable + 1];
+  for (std::size_t r = 0; r < k; ++r) w.first_use[r + 1] += w.first_use[r];
+  w.uses.resize(w.entries.size());
+  for (std::size_t j = 0; j < solutes; ++j)
+    for (std::size_t e = w.first_entry[j]; e < w.first_entry[j + 1]; ++e)
+      w.uses[w.first_use[w.entries[e].variable]++] = {j, w.entries[e].coefficient};
+  for (std::size_t r = k; r > 0; --r) w.first_use[r] = w.first_use[r - 1];  // back to the starts
+  w.first_use[0] = 0;
   for (auto* v : {&w.value, &w.total, &w.gradient, &w.step, &w.trial_value}) v->resize(k);
   for (auto* v : {&w.offset, &w.exponent, &w.molality, &w.direction, &w.trial_exponent, &w.trial_molality}) v->resize(solutes);
   w.hessian.resize(k * k);
