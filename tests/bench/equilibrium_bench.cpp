@@ -59,7 +59,7 @@ void cold_and_warm_10000_cases(benchmark::State& state, const ChemicalSystem& sy
   Speciation out;
   for (auto _ : state) {
     std::vector<double> cold_us, warm_us;
-    double converged = 0, warm_iterations = 0, with_solid = 0;
+    double converged = 0, warm_iterations = 0, cold_iterations = 0, with_solid = 0;
     for (const auto& amounts : cases) {
       auto nearby = amounts;
       for (std::size_t c = 1; c < nearby.size(); ++c) nearby[c] *= 1.01;
@@ -68,6 +68,7 @@ void cold_and_warm_10000_cases(benchmark::State& state, const ChemicalSystem& sy
         const auto t0 = std::chrono::steady_clock::now();
         solver.solve(298.15, constants::standard_atmosphere, amounts, pressures, out);
         const auto t1 = std::chrono::steady_clock::now();
+        cold_iterations += static_cast<double>(out.iterations);
         solver.solve(298.15, constants::standard_atmosphere, nearby, pressures, out);
         const auto t2 = std::chrono::steady_clock::now();
         cold_us.push_back(std::chrono::duration<double, std::micro>(t1 - t0).count());
@@ -82,6 +83,7 @@ void cold_and_warm_10000_cases(benchmark::State& state, const ChemicalSystem& sy
     state.counters["cold_median_us"] = median(cold_us);
     state.counters["warm_median_us"] = median(warm_us);
     state.counters["warm_newton_iterations_mean"] = warm_iterations / converged;
+    state.counters["cold_newton_iterations_mean"] = cold_iterations / converged;
     state.counters["converged_percent"] = 100.0 * converged / static_cast<double>(cases.size());
     const bool solids_allowed =
         std::any_of(system.solids().begin(), system.solids().end(), [](const PhaseSpecies& p) { return p.allowed; });

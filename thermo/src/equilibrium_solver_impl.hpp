@@ -14,6 +14,7 @@
 #include <string>
 #include <vector>
 
+#include "initial_guess.hpp"
 #include "protonflow/thermo/equilibrium_solver.hpp"
 #include "protonflow/thermo/errors.hpp"
 
@@ -66,6 +67,7 @@ struct EquilibriumSolver::Impl {
   void update_log_k(double temperature, double pressure);
   void ideal_guess(double* u);  // for the current set of present phases
   void guess_pass(double* u, double ln_water_activity, bool first, double tolerance);
+  void settle_water_mass(double* u) const;
   bool solve_current_set();
   bool replace_rival(std::size_t added);
   int run_kinsol(int strategy);
@@ -118,6 +120,7 @@ struct EquilibriumSolver::Impl {
   std::vector<double> basis_amount;  // Σ_i ν_ib m_i of each basis species, scratch of the residual
   std::vector<double> ln_basis_activity;  // ln a_b of each basis species, scratch of fill()
   std::vector<char> guess_active, previous_active;
+  detail::GuessWorkspace guess_workspace;  // the cold start's work arrays (equilibrium_guess.cpp)
   bool has_previous = false;
   // The LU in the linear solver: at which T and P its Jacobian was evaluated, and whether the next
   // KINSOL call may start with it (a warm start of the same phase set: docs/equilibrium.md).
