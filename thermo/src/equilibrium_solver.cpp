@@ -122,6 +122,7 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
   u_scale = check_created(N_VNew_Serial(length, context), "N_VNew_Serial");
   f_scale = check_created(N_VNew_Serial(length, context), "N_VNew_Serial");
   f_work = check_created(N_VNew_Serial(length, context), "N_VNew_Serial");
+  newton_step = check_created(N_VNew_Serial(length, context), "N_VNew_Serial");
   N_VConst(1.0, u);
   N_VConst(1.0, u_scale);  // ln m and ln W are already well scaled
   const auto newton_length = static_cast<sunindextype>(reduced ? reduced_size : size);
@@ -160,6 +161,7 @@ EquilibriumSolver::Impl::~Impl() {
     N_VDestroy(reduced_u_scale);
     N_VDestroy(reduced_u);
   }
+  N_VDestroy(newton_step);
   N_VDestroy(f_work);
   N_VDestroy(f_scale);
   N_VDestroy(u_scale);
@@ -180,9 +182,14 @@ int EquilibriumSolver::Impl::run_newton() {
   // fall back to the line search from the same start if they do not converge.
   if (reuse_factorization) {
     constexpr long full_steps_of_a_warm_start = 8;
-    check_flag(KINSetNumMaxIters(kinsol, full_steps_of_a_warm_start), "KINSetNumMaxIters");
-    const int flag = run_kinsol(KIN_NONE);
-    check_flag(KINSetNumMaxIters(kinsol, options.max_iterations), "KINSetNumMaxIters");
+    int flag = 0;
+    if (options.form == NewtonForm::reduced) {
+      check_flag(KINSetNumMaxIters(kinsol, full_steps_of_a_warm_start), "KINSetNumMaxIters");
+      flag = run_kinsol(KIN_NONE);
+      check_flag(KINSetNumMaxIters(kinsol, options.max_iterations), "KINSetNumMaxIters");
+    } else {
+      flag = full_newton_steps(full_steps_of_a_warm_start);
+    }
     if (accepted(flag)) return flag;
     std::copy(newton_start.begin(), newton_start.end(), x);
   }
@@ -192,10 +199,8 @@ int EquilibriumSolver::Impl::run_newton() {
   return run_kinsol(KIN_NONE);
 }
 
-int EquilibriumSolver::Impl::run_kinsol(int strategy) {
-  // Scale each residual by its natural size, so the tolerance is relative for every balance.
-  double* x = N_VGetArrayPointer(u);
-  double* scale = N_VGetArrayPointer(f_scale);
+// Scale each residual by its natural size, so the tolerance is relative for every balance.
+void EquilibriumSolver::Impl::set_residual_scales(const double* x, double* scale) {
   evaluate_molalities(x);
   double charge_scale = 0.0;
   for (std::size_t i = 0; i < n; ++i) charge_scale += 0.5 * std::abs(charge[i]) * molality[i];
@@ -214,9 +219,62 @@ int EquilibriumSolver::Impl::run_kinsol(int strategy) {
     scale[b] = 1.0 / (natural > 0.0 ? natural : uptake_scale);
   }
   scale[n] = 1.0 / water_total;
+  scale_mass_action_rows(x, scale);
+}
+
+// Full Newton steps without KINSOL, for the warm start: the same steps as KINSOL's KIN_NONE strategy
+// (the same residual, Jacobian callback, linear solver, step cap and stopping test on the scaled
+// max-norm of F), without its per-call set-up and per-step vector work, which in a warm solve of 3
+// steps on 16 unknowns cost about a quarter of the call (docs/performance.md, "KINSOL's overhead").
+int EquilibriumSolver::Impl::full_newton_steps(long most_steps) {
+  double* x = N_VGetArrayPointer(u);
+  double* f = N_VGetArrayPointer(f_work);
+  double* step = N_VGetArrayPointer(newton_step);
+  const double* scale = N_VGetArrayPointer(f_scale);
+  set_residual_scales(x, N_VGetArrayPointer(f_scale));
   factored_this_call = false;
   chord_steps = 0;
-  scale_mass_action_rows(x, scale);
+  const double longest_step = 20.0 * std::sqrt(static_cast<double>(size));  // as KINSetMaxNewtonStep
+  int flag = KIN_MAXITER_REACHED;
+  for (newton_iterations = 0;; ++newton_iterations) {
+    residual(x, f);
+    double norm = 0.0;
+    for (std::size_t i = 0; i < size; ++i) norm = std::max(norm, std::abs(f[i] * scale[i]));
+    if (!std::isfinite(norm)) break;
+    if (norm <= options.tolerance) {
+      flag = KIN_SUCCESS;
+      break;
+    }
+    if (newton_iterations == most_steps) break;
+    // The Newton matrix: the LU held (a warm start's first step, a chord step) or a new one.
+    if (jacobian_callback(u, f_work, jacobian_matrix, this, nullptr, nullptr) != 0 ||
+        SUNLinSolSetup(linear_solver, jacobian_matrix) != SUNLS_SUCCESS) {
+      flag = KIN_LSETUP_FAIL;
+      break;
+    }
+    for (std::size_t i = 0; i < size; ++i) step[i] = -f[i];
+    if (SUNLinSolSolve(linear_solver, jacobian_matrix, newton_step, newton_step, 0.0) != SUNLS_SUCCESS) {
+      flag = KIN_LSOLVE_FAIL;
+      break;
+    }
+    double length = 0.0;
+    for (std::size_t i = 0; i < size; ++i) length += step[i] * step[i];
+    length = std::sqrt(length);
+    const double shorten = length > longest_step ? longest_step / length : 1.0;
+    for (std::size_t i = 0; i < size; ++i) x[i] += shorten * step[i];
+  }
+  reuse_factorization = false;  // only ever for the first step of a warm solve
+  if (flag < 0) factorization_current = false;
+  return flag;
+}
+
+int EquilibriumSolver::Impl::run_kinsol(int strategy) {
+  double* x = N_VGetArrayPointer(u);
+  double* scale = N_VGetArrayPointer(f_scale);
+  set_residual_scales(x, scale);
+  factored_this_call = false;
+  chord_steps = 0;
+  int flag = 0;
   if (options.form == NewtonForm::reduced) {
     // The reduced unknowns and their scales are the full form's outside the mass-action block; the
     // secondary ln m start where x has them and end solving their rows at the answer.
@@ -227,17 +285,16 @@ int EquilibriumSolver::Impl::run_kinsol(int strategy) {
       y[r] = x[full_index(r)];
       y_scale[r] = scale[full_index(r)];
     }
-    const int flag = KINSol(kinsol, reduced_u, strategy, reduced_u_scale, reduced_f_scale);
+    flag = KINSol(kinsol, reduced_u, strategy, reduced_u_scale, reduced_f_scale);
     bool at_y = true;
     for (std::size_t r = 0; r < reduced_size; ++r) at_y = at_y && full_x[full_index(r)] == y[r];
     if (!at_y) reduced_residual(y, N_VGetArrayPointer(f_work));
     std::copy(full_x.begin(), full_x.end(), x);
-    reuse_factorization = false;
-    if (flag < 0) factorization_current = false;
-    return flag;
+  } else {
+    // Solve, then check the flag.
+    flag = KINSol(kinsol, u, strategy, u_scale, f_scale);
   }
-  // Solve, then check the flag.
-  const int flag = KINSol(kinsol, u, strategy, u_scale, f_scale);
+  KINGetNumNonlinSolvIters(kinsol, &newton_iterations);
   reuse_factorization = false;  // only ever for the first step of a warm solve
   if (flag < 0) factorization_current = false;
   return flag;
@@ -316,9 +373,7 @@ void EquilibriumSolver::Impl::fill(Speciation& out, bool warm) {
     if (out.gas_phase_present) out.gas_amount[g] = phase_scale * x[phase_offset + g];
   }
 
-  long iterations = 0;
-  KINGetNumNonlinSolvIters(kinsol, &iterations);
-  out.iterations = iterations;
+  out.iterations = newton_iterations;
   out.residual_norm = scaled_residual_norm(true);  // F at the answer is KINSOL's last evaluation
   out.warm_started = warm;
   out.activity_model_limit = activity->maximum_ionic_strength();
@@ -370,8 +425,7 @@ void EquilibriumSolver::Impl::solve(double t, double p, std::span<const double> 
   }
   if (!converged) {
     has_previous = false;
-    long iterations = 0;
-    KINGetNumNonlinSolvIters(kinsol, &iterations);
+    const long iterations = newton_iterations;
     throw ConvergenceError(
         fmt::format("speciation did not converge at {:.2f} K (KINSOL {}: {}); scaled residual max-norm {:.3g}",
                     t, flag_name(last_flag), kinsol_message, scaled_residual_norm()),
