@@ -182,14 +182,7 @@ int EquilibriumSolver::Impl::run_newton() {
   // fall back to the line search from the same start if they do not converge.
   if (reuse_factorization) {
     constexpr long full_steps_of_a_warm_start = 8;
-    int flag = 0;
-    if (options.form == NewtonForm::reduced) {
-      check_flag(KINSetNumMaxIters(kinsol, full_steps_of_a_warm_start), "KINSetNumMaxIters");
-      flag = run_kinsol(KIN_NONE);
-      check_flag(KINSetNumMaxIters(kinsol, options.max_iterations), "KINSetNumMaxIters");
-    } else {
-      flag = full_newton_steps(full_steps_of_a_warm_start);
-    }
+    const int flag = full_newton_steps(full_steps_of_a_warm_start);
     if (accepted(flag)) return flag;
     std::copy(newton_start.begin(), newton_start.end(), x);
   }
@@ -227,19 +220,39 @@ void EquilibriumSolver::Impl::set_residual_scales(const double* x, double* scale
 // max-norm of F), without its per-call set-up and per-step vector work, which in a warm solve of 3
 // steps on 16 unknowns cost about a quarter of the call (docs/performance.md, "KINSOL's overhead").
 int EquilibriumSolver::Impl::full_newton_steps(long most_steps) {
+  // The reduced form steps in its own unknowns y (the full form's outside the mass-action block).
+  const bool reduced = options.form == NewtonForm::reduced;
   double* x = N_VGetArrayPointer(u);
-  double* f = N_VGetArrayPointer(f_work);
-  double* step = N_VGetArrayPointer(newton_step);
-  const double* scale = N_VGetArrayPointer(f_scale);
   set_residual_scales(x, N_VGetArrayPointer(f_scale));
   factored_this_call = false;
   chord_steps = 0;
+  N_Vector unknowns = reduced ? reduced_u : u;
+  const std::size_t length = reduced ? reduced_size : size;
+  double* y = N_VGetArrayPointer(unknowns);
+  double* f = N_VGetArrayPointer(f_work);
+  double* step = N_VGetArrayPointer(newton_step);
+  const double* scale = N_VGetArrayPointer(reduced ? reduced_f_scale : f_scale);
+  if (reduced) {
+    std::copy(x, x + size, full_x.begin());
+    double* y_scale = N_VGetArrayPointer(reduced_f_scale);
+    for (std::size_t r = 0; r < reduced_size; ++r) {
+      y[r] = x[full_index(r)];
+      y_scale[r] = N_VGetArrayPointer(f_scale)[full_index(r)];
+    }
+  }
   const double longest_step = 20.0 * std::sqrt(static_cast<double>(size));  // as KINSetMaxNewtonStep
   int flag = KIN_MAXITER_REACHED;
   for (newton_iterations = 0;; ++newton_iterations) {
-    residual(x, f);
+    if (reduced) {
+      if (!reduced_residual(y, f)) {
+        flag = KIN_SYSFUNC_FAIL;
+        break;
+      }
+    } else {
+      residual(y, f);
+    }
     double norm = 0.0;
-    for (std::size_t i = 0; i < size; ++i) norm = std::max(norm, std::abs(f[i] * scale[i]));
+    for (std::size_t i = 0; i < length; ++i) norm = std::max(norm, std::abs(f[i] * scale[i]));
     if (!std::isfinite(norm)) break;
     if (norm <= options.tolerance) {
       flag = KIN_SUCCESS;
@@ -247,22 +260,24 @@ int EquilibriumSolver::Impl::full_newton_steps(long most_steps) {
     }
     if (newton_iterations == most_steps) break;
     // The Newton matrix: the LU held (a warm start's first step, a chord step) or a new one.
-    if (jacobian_callback(u, f_work, jacobian_matrix, this, nullptr, nullptr) != 0 ||
-        SUNLinSolSetup(linear_solver, jacobian_matrix) != SUNLS_SUCCESS) {
+    const int evaluated = reduced ? reduced_jacobian_callback(unknowns, f_work, jacobian_matrix, this, nullptr, nullptr)
+                                  : jacobian_callback(unknowns, f_work, jacobian_matrix, this, nullptr, nullptr);
+    if (evaluated != 0 || SUNLinSolSetup(linear_solver, jacobian_matrix) != SUNLS_SUCCESS) {
       flag = KIN_LSETUP_FAIL;
       break;
     }
-    for (std::size_t i = 0; i < size; ++i) step[i] = -f[i];
+    for (std::size_t i = 0; i < length; ++i) step[i] = -f[i];
     if (SUNLinSolSolve(linear_solver, jacobian_matrix, newton_step, newton_step, 0.0) != SUNLS_SUCCESS) {
       flag = KIN_LSOLVE_FAIL;
       break;
     }
-    double length = 0.0;
-    for (std::size_t i = 0; i < size; ++i) length += step[i] * step[i];
-    length = std::sqrt(length);
-    const double shorten = length > longest_step ? longest_step / length : 1.0;
-    for (std::size_t i = 0; i < size; ++i) x[i] += shorten * step[i];
+    double step_length = 0.0;
+    for (std::size_t i = 0; i < length; ++i) step_length += step[i] * step[i];
+    step_length = std::sqrt(step_length);
+    const double shorten = step_length > longest_step ? longest_step / step_length : 1.0;
+    for (std::size_t i = 0; i < length; ++i) y[i] += shorten * step[i];
   }
+  if (reduced) std::copy(full_x.begin(), full_x.end(), x);  // the last residual's full u, at y
   reuse_factorization = false;  // only ever for the first step of a warm solve
   if (flag < 0) factorization_current = false;
   return flag;
