@@ -191,9 +191,11 @@ BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, reduced_brine_pitzer, NewtonFo
 BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, reduced_brine_pitzer, NewtonForm::reduced, ActivityModelKind::pitzer, true)->Iterations(1010);
 
 // Cold solving through the drawn cases.
-void speciation_cold(benchmark::State& state) {
+void speciation_cold_in_form(benchmark::State& state, NewtonForm form) {
   const ChemicalSystem system = benchmark_system();
-  EquilibriumSolver solver(system);
+  SolverOptions options;
+  options.form = form;
+  EquilibriumSolver solver(system, options);
   const auto cases = draw_cases(1000);
   Speciation out;
   std::size_t k = 0;
@@ -203,9 +205,13 @@ void speciation_cold(benchmark::State& state) {
     benchmark::DoNotOptimize(out.ph);
   }
 }
+void speciation_cold(benchmark::State& state) { speciation_cold_in_form(state, NewtonForm::full); }
 BENCHMARK(speciation_cold)->Unit(benchmark::kMicrosecond);
 BENCHMARK(speciation_cold)->Iterations(10)->Unit(benchmark::kMicrosecond);
 BENCHMARK(speciation_cold)->Iterations(210)->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_cold_in_form, reduced, NewtonForm::reduced)->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_cold_in_form, reduced, NewtonForm::reduced)->Iterations(10);
+BENCHMARK_CAPTURE(speciation_cold_in_form, reduced, NewtonForm::reduced)->Iterations(210);
 
 // The same system with calcite and gypsum allowed to precipitate and CO2 open to air (42 Pa, about
 // 415 ppm at 1 atm: the atmosphere's CO2 around 2021, NOAA Mauna Loa annual mean, from memory).

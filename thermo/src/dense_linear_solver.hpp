@@ -35,7 +35,7 @@ void solve_in_place(const double* lu, sunindextype n, const sunindextype* pivot,
 
 // The Schur complement of the block [begin, end) of an n×n column-major matrix J (rows and columns
 // alike): S = J_oo − J_oi J_ii⁻¹ J_io over the outer indices o = [0, begin) ∪ [end, n), in their
-// order [golub-van-loan-2013, §3.2.10]. Sized once; forming it allocates nothing.
+// order [golub-van-loan-2013, block LU]. Sized once; forming it allocates nothing.
 class SchurComplement {
  public:
   SchurComplement(std::size_t n, std::size_t begin, std::size_t end);

@@ -162,7 +162,6 @@ struct EquilibriumSolver::Impl {
   std::vector<double> full_x, full_f, full_jacobian, secondary_matrix, secondary_step;
   std::vector<sunindextype> secondary_pivot;
   std::unique_ptr<detail::SchurComplement> schur;
-  long secondary_iterations = 0;  // Newton steps of the secondary solves, for the benchmark
 
   SUNContext context = nullptr;
   void* kinsol = nullptr;

@@ -80,7 +80,6 @@ bool EquilibriumSolver::Impl::solve_secondary(double* x) {
     const double shorten = largest > longest_step ? longest_step / largest : 1.0;
     for (std::size_t i = nb; i < n; ++i)
       if (active[i]) x[i] = std::clamp(x[i] + shorten * secondary_step[i - nb], detail::lowest_log, detail::highest_log);
-    ++secondary_iterations;
     const bool at_rounding_floor =
         largest <= 4.0 * std::numeric_limits<double>::epsilon() * largest_x || (largest < 1e-9 && largest > 0.5 * previous_largest);
     if (at_rounding_floor) return true;
