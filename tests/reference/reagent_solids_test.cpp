@@ -66,7 +66,7 @@ TEST_CASE("villiaumite: NaF saturates where m(Na+) m(F-) is its Ksp") {
   CHECK(dissolved < 0.95);
 }
 
-TEST_CASE("fluoride removal: lime precipitates fluorite and sellaite stays undersaturated; without calcium sellaite sets F") {
+TEST_CASE("fluoride removal: lime precipitates fluorite and sellaite stays undersaturated, without calcium sellaite sets F") {
   SECTION("lime on HF with magnesium present") {
     const Equilibrium e = equilibrate({"HF", "MgCl2", "Ca(OH)2"}, {0.02, 0.005, 0.012}, {"fluorite", "sellaite"});
     CHECK(e.amount("fluorite") > 0.0095);
@@ -150,7 +150,7 @@ TEST_CASE("ferric salt on phosphate: strengite takes the phosphate at pH 3 to 4"
   CHECK(std::log10(e.molality("Fe^3+") * e.molality("H3PO4(aq)") / (h * h * h)) + 2.0 * water == Approx(-6.70).margin(0.001));
 }
 
-TEST_CASE("lime on phosphate: brushite at its Ksp and less soluble hot; hydroxyapatite where allowed takes more") {
+TEST_CASE("lime on phosphate: brushite at its Ksp and less soluble hot, hydroxyapatite where allowed takes more") {
   // Ca/P = 1 (CaHPO4 in the feed): brushite is the solid of the dose. Ksp = m(Ca^2+) m(HPO4^2-) a(H2O)^2
   // = 10^-6.59 at 25 °C (Gregory, Moreno & Brown 1970, read).
   const std::vector<std::string> components{"H3PO4", "Ca(OH)2"};
