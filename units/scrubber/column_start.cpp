@@ -1,21 +1,11 @@
-// The column's first profile: a cheap pass of stage-by-stage sweeps (docs/units.md, "scrubber",
-// "Starting profile").
-//
-// With a stage model that flashes (the chemistry), each sweep takes every stage in turn, up the
-// column and down again by turns (Gauss–Seidel), brings what reaches it (the liquid from above,
-// the gas from below) to equilibrium at its temperature, passes on (1 − E) of each gas as it came
-// (Murphree), and moves the stage's temperature by its own energy imbalance over the heat
-// capacity of its flows. Every stage's flows then balance its inflows exactly, so the imbalance
-// is heat (sensible, of absorption, of evaporation) and never a formation enthalpy of flows that
-// do not balance.
-//
-// Without a flash (the linear test model), each sweep linearises every stage's equilibrium around
-// the current profile, y*_jk = m_jk x_jc with m from the stage's own equilibrium, and solves each
-// gas's component balances down the column as one tridiagonal system (the Thomas algorithm): the
-// absorption-factor method of Kremser (1930) and Souders & Brown (1932) with an absorption factor
-// per stage. New flows are taken halfway (in ln) from the old ones, so a reacting solute that
-// swings between "all absorbed" and "none absorbed" settles instead of oscillating. Stage
+// The column's first profile: a cheap pass of stage-to-stage sweeps (docs/units.md, "scrubber",
+// "Starting profile"). Each sweep linearises every stage's equilibrium around the current profile,
+// y*_jk = m_jk x_jc with m from the stage's own speciation, and solves each gas's component
+// balances down the column as one tridiagonal system (the Thomas algorithm): the absorption-factor
+// method of Kremser (1930) and Souders & Brown (1932) with an absorption factor per stage. Stage
 // temperatures then move by their energy imbalance over the heat capacity of the stage's flows.
+// New flows are taken halfway (in ln) from the old ones, so a reacting solute that swings between
+// "all absorbed" and "none absorbed" settles instead of oscillating.
 #include <algorithm>
 #include <cmath>
 #include <exception>
@@ -59,23 +49,16 @@ ColumnProfile ColumnEquations::start_profile(int sweeps) {
   const double floor = flow_floor * flow_scale_;
   const double t_low = model_.minimum_temperature() + 0.5;
   const double t_high = model_.maximum_temperature() - 0.5;
-  const bool flashes = model_.has_flash();
-  // Every stage at the liquor's temperature. With flashes, every stage holds the feeds as they
-  // come (the liquor, and the gas below it) and the first sweep goes up the column with the gas:
-  // each stage takes up what the gas brings it, and the next sweep down gathers that into the
-  // liquor. (A guess of absorbed gas on every stage, swept down first, piles each stage's guess
-  // onto the next, far beyond the feed.) Without flashes, half of each dissolving gas is in the
-  // liquid and half in the gas: the absorption-factor sweeps move flows by factors, never from
-  // nothing.
+  // Every stage at the liquor's temperature, with half of each dissolving gas in the liquid and
+  // half in the gas: a start from which the sweeps move by factors, never from nothing.
   for (std::size_t j = 0; j < n; ++j) {
     for (const std::size_t c : liquid_unknowns_) {
       const std::size_t k = component_gas_[c];
-      const double absorbed = flashes || k == StageModel::no_component ? 0.0 : 0.5 * feeds_.gas[k];
-      l_[j * liquid_count_ + c] = std::max(feeds_.liquid[c] + absorbed, floor);
+      l_[j * liquid_count_ + c] = std::max(feeds_.liquid[c] + (k == StageModel::no_component ? 0.0 : 0.5 * feeds_.gas[k]), floor);
     }
     for (const std::size_t k : gas_unknowns_) {
       const bool inert = model_.gas_component(k) == StageModel::no_component;
-      v_[j * gas_count_ + k] = std::max(inert || flashes ? feeds_.gas[k] : 0.5 * feeds_.gas[k], floor);
+      v_[j * gas_count_ + k] = std::max(inert ? feeds_.gas[k] : 0.5 * feeds_.gas[k], floor);
     }
     t_[j] = std::clamp(feeds_.liquid_temperature, t_low, t_high);
   }
@@ -84,140 +67,99 @@ ColumnProfile ColumnEquations::start_profile(int sweeps) {
     for (std::size_t i = 0; i < count; ++i) sum += values[i];
     return sum;
   };
-  const auto heat_capacity = [&](std::size_t j) {
-    return liquid_heat_capacity * total(l_.data() + j * liquid_count_, liquid_count_) +
-           gas_heat_capacity * total(v_.data() + j * gas_count_, gas_count_);
-  };
-  // Stage j's energy imbalance at the working profile, W: in less out.
-  const auto energy_imbalance = [&](std::size_t j) {
-    const bool bottom = j + 1 == n;
-    const double* gas_in = bottom ? feeds_.gas.data() : v_.data() + (j + 1) * gas_count_;
-    return above(j).liquid_enthalpy + gas_enthalpy_flow(gas_in, bottom ? feeds_.gas_temperature : t_[j + 1]) -
-           equilibrium_[j].liquid_enthalpy - gas_enthalpy_flow(v_.data() + j * gas_count_, t_[j]);
-  };
+  std::vector<double> a(n), b(n), c(n), d(n), stripping(n), energy(n);
   std::vector<double> totals(liquid_count_), liquid(liquid_count_), gas(gas_count_);
-  // What reaches a stage (the liquid from above, the gas from below) into `totals`; returns the
-  // pressure the dissolving gases share (an inert gas passes and lowers it).
-  const auto inflows = [&](const double* liquid_in, const double* gas_in) {
-    std::fill(totals.begin(), totals.end(), 0.0);
-    for (const std::size_t comp : liquid_unknowns_) totals[comp] = liquid_in[comp];
-    double inert = 0.0, all = 0.0;
-    for (const std::size_t k : gas_unknowns_) {
-      all += gas_in[k];
-      if (model_.gas_component(k) == StageModel::no_component) inert += gas_in[k];
-      else totals[model_.gas_component(k)] += gas_in[k];
-    }
-    return pressure_ * (1.0 - inert / all);
-  };
-  if (flashes) {
-    // Every stage first holds the whole column's feeds brought to equilibrium together at the
-    // liquor's temperature (one flash): the liquor as loaded as one stage can make it, the gas as
-    // lean. From there each sweep moves stages by what their neighbours hand them; a stage left
-    // at the feeds themselves would, on a first sweep, take up on every stage what the column
-    // takes up in all (a carrier gas absorbed away within a few stages).
-    try {
-      model_.flash(0, t_[0], inflows(feeds_.liquid.data(), feeds_.gas.data()), totals, liquid, gas);
-      for (std::size_t j = 0; j < n; ++j) {
-        for (const std::size_t comp : liquid_unknowns_) l_[j * liquid_count_ + comp] = std::max(liquid[comp], floor);
-        for (const std::size_t k : gas_unknowns_)
-          v_[j * gas_count_ + k] = std::max(model_.gas_component(k) == StageModel::no_component ? feeds_.gas[k] : gas[k], floor);
-      }
-    } catch (const std::exception&) {
-      // the stages keep the feeds as they come
-    }
-    // A first evaluation of every stage: the stage above's enthalpy, and a warm start for each.
-    for (std::size_t j = 0; j < n; ++j) evaluate_stage(j, equilibrium_[j]);
-    for (int sweep = 0; sweep < sweeps; ++sweep) {
+  for (int sweep = 0; sweep < sweeps; ++sweep) {
+    if (model_.has_flash()) {
+      // Stage flashes, Gauss–Seidel, down the column and up again by turns: each stage takes
+      // what reaches it (the liquid from above, the gas from below) to equilibrium at its
+      // temperature. An inert gas passes and lowers the pressure the others share.
       for (std::size_t step = 0; step < n; ++step) {
-        const std::size_t j = sweep % 2 == 0 ? n - 1 - step : step;
+        const std::size_t j = sweep % 2 == 0 ? step : n - 1 - step;
         const double* liquid_in = j == 0 ? feeds_.liquid.data() : l_.data() + (j - 1) * liquid_count_;
         const double* gas_in = j + 1 == n ? feeds_.gas.data() : v_.data() + (j + 1) * gas_count_;
+        std::fill(totals.begin(), totals.end(), 0.0);
+        for (const std::size_t comp : liquid_unknowns_) totals[comp] = liquid_in[comp];
+        double inert = 0.0, all = 0.0;
+        for (const std::size_t k : gas_unknowns_) {
+          all += gas_in[k];
+          if (model_.gas_component(k) == StageModel::no_component) inert += gas_in[k];
+          else totals[model_.gas_component(k)] += gas_in[k];
+        }
         try {
-          // Equilibrium with a gas phase at the stage's temperature.
-          const double shared_pressure = inflows(liquid_in, gas_in);
-          model_.flash(j, t_[j], shared_pressure, totals, liquid, gas);
+          model_.flash(j, t_[j], pressure_ * (1.0 - inert / all), totals, liquid, gas);
         } catch (const std::exception&) {
           continue;  // this stage keeps its previous flows; Newton starts from them
         }
-        // The flash is a stage of efficiency 1; a stage of efficiency E passes on (1 − E) of
-        // what came in as it came (Murphree, on flows rather than mole fractions: the start's
-        // approximation), and the liquid keeps the rest.
+        // The flash is a stage of efficiency 1; a stage of efficiency E passes on (1 − E) of what
+        // came in as it came and E of the flash's gas (Murphree, on flows rather than mole
+        // fractions: the start's approximation), the liquid keeping the rest.
         for (const std::size_t k : gas_unknowns_) {
           const std::size_t comp = model_.gas_component(k);
-          if (comp == StageModel::no_component) {
-            gas[k] = gas_in[k];
-            continue;
-          }
+          if (comp == StageModel::no_component) continue;
           const double passed = (1.0 - efficiency_[k]) * gas_in[k] + efficiency_[k] * gas[k];
           liquid[comp] += gas[k] - passed;
           gas[k] = passed;
         }
         for (const std::size_t comp : liquid_unknowns_) l_[j * liquid_count_ + comp] = std::max(liquid[comp], floor);
-        for (const std::size_t k : gas_unknowns_) v_[j * gas_count_ + k] = std::max(gas[k], floor);
-        // The stage's temperature: its imbalance, inflows and outflows balancing, over the heat
-        // capacity of its flows.
-        try {
-          evaluate_stage(j, equilibrium_[j]);
-        } catch (const std::exception&) {
-          continue;  // the temperature stays
-        }
-        const double capacity = heat_capacity(j);
-        const double change = std::clamp(energy_imbalance(j) / capacity, -largest_temperature_step, largest_temperature_step);
-        const double moved = std::clamp(t_[j] + change, t_low, t_high);
-        // The liquid's enthalpy follows, for the stage below (to first order).
-        equilibrium_[j].liquid_enthalpy += (moved - t_[j]) * liquid_heat_capacity * total(l_.data() + j * liquid_count_, liquid_count_);
-        t_[j] = moved;
+        for (const std::size_t k : gas_unknowns_)
+          v_[j * gas_count_ + k] = std::max(model_.gas_component(k) == StageModel::no_component ? gas_in[k] : gas[k], floor);
       }
     }
-  } else {
-    std::vector<double> a(n), b(n), c(n), d(n), stripping(n), energy(n);
-    for (int sweep = 0; sweep < sweeps; ++sweep) {
+    if (!model_.has_flash())
       for (std::size_t j = 0; j < n; ++j) evaluate_stage(j, equilibrium_[j]);
-      // Flows: one tridiagonal system per dissolving gas, with the stage's stripping factor
-      // S_j = E m_j V_j / L_j, m_j = (p*_j / P) / x_j:  −l_(j−1) + (1 + S_j) l_j − S_(j+1) l_(j+1) = 0,
-      // the liquor feed above the top stage and the gas feed below the bottom one.
-      for (const std::size_t k : gas_unknowns_) {
-        const std::size_t comp = model_.gas_component(k);
-        if (comp == StageModel::no_component) continue;  // an inert gas passes unchanged
-        for (std::size_t j = 0; j < n; ++j) {
-          const double liquid_total = total(l_.data() + j * liquid_count_, liquid_count_);
-          const double gas_total = total(v_.data() + j * gas_count_, gas_count_);
-          const double fraction = std::max(l_[j * liquid_count_ + comp], floor) / liquid_total;
-          const double slope = equilibrium_[j].partial_pressure[k] / pressure_ / fraction;
-          stripping[j] = efficiency_[k] * slope * gas_total / liquid_total;
-        }
-        for (std::size_t j = 0; j < n; ++j) {
-          a[j] = -1.0;
-          b[j] = 1.0 + stripping[j];
-          c[j] = j + 1 < n ? -stripping[j + 1] : 0.0;
-          d[j] = 0.0;
-        }
-        d[0] += feeds_.liquid[comp];
-        d[n - 1] += feeds_.gas[k];
-        solve_tridiagonal(a, b, c, d);
-        // A linearised stage can strip what the next one absorbs, and circulate more of a gas
-        // than the column is fed: no flow of the start exceeds the component's feeds.
-        const double fed = feeds_.liquid[comp] + feeds_.gas[k];
-        for (std::size_t j = 0; j < n; ++j) {
-          double& liquid = l_[j * liquid_count_ + comp];
-          double& gas = v_[j * gas_count_ + k];
-          const double new_liquid = std::clamp(d[j], floor, fed);
-          const double new_gas = std::clamp(stripping[j] * d[j], floor, fed);
-          liquid *= std::exp(std::clamp(relaxation * std::log(new_liquid / liquid), -largest_log_step, largest_log_step));
-          gas *= std::exp(std::clamp(relaxation * std::log(new_gas / gas), -largest_log_step, largest_log_step));
-        }
-      }
-      // Temperatures: each stage's energy imbalance at the new flows over its flows' heat capacity.
-      try {
-        for (std::size_t j = 0; j < n; ++j) evaluate_stage(j, equilibrium_[j]);
-      } catch (const std::exception&) {
-        continue;  // temperatures stay; Newton starts from them
-      }
-      for (std::size_t j = 0; j < n; ++j) energy[j] = energy_imbalance(j);
+    // Flows: one tridiagonal system per dissolving gas, with the stage's stripping factor
+    // S_j = E m_j V_j / L_j, m_j = (p*_j / P) / x_j:  −l_(j−1) + (1 + S_j) l_j − S_(j+1) l_(j+1) = 0,
+    // the liquor feed above the top stage and the gas feed below the bottom one.
+    for (const std::size_t k : gas_unknowns_) {
+      const std::size_t comp = model_.gas_component(k);
+      if (comp == StageModel::no_component || model_.has_flash()) continue;  // an inert gas passes unchanged
       for (std::size_t j = 0; j < n; ++j) {
-        const double step = std::clamp(energy[j] / heat_capacity(j), -largest_temperature_step, largest_temperature_step);
-        t_[j] = std::clamp(t_[j] + step, t_low, t_high);
+        const double liquid_total = total(l_.data() + j * liquid_count_, liquid_count_);
+        const double gas_total = total(v_.data() + j * gas_count_, gas_count_);
+        const double fraction = std::max(l_[j * liquid_count_ + comp], floor) / liquid_total;
+        const double slope = equilibrium_[j].partial_pressure[k] / pressure_ / fraction;
+        stripping[j] = efficiency_[k] * slope * gas_total / liquid_total;
       }
+      for (std::size_t j = 0; j < n; ++j) {
+        a[j] = -1.0;
+        b[j] = 1.0 + stripping[j];
+        c[j] = j + 1 < n ? -stripping[j + 1] : 0.0;
+        d[j] = 0.0;
+      }
+      d[0] += feeds_.liquid[comp];
+      d[n - 1] += feeds_.gas[k];
+      solve_tridiagonal(a, b, c, d);
+      // A linearised stage can strip what the next one absorbs, and circulate more of a gas
+      // than the column is fed: no flow of the start exceeds the component's feeds.
+      const double fed = feeds_.liquid[comp] + feeds_.gas[k];
+      for (std::size_t j = 0; j < n; ++j) {
+        double& liquid = l_[j * liquid_count_ + comp];
+        double& gas = v_[j * gas_count_ + k];
+        const double new_liquid = std::clamp(d[j], floor, fed);
+        const double new_gas = std::clamp(stripping[j] * d[j], floor, fed);
+        liquid *= std::exp(std::clamp(relaxation * std::log(new_liquid / liquid), -largest_log_step, largest_log_step));
+        gas *= std::exp(std::clamp(relaxation * std::log(new_gas / gas), -largest_log_step, largest_log_step));
+      }
+    }
+    // Temperatures: each stage's energy imbalance at the new flows over its flows' heat capacity.
+    try {
+      for (std::size_t j = 0; j < n; ++j) evaluate_stage(j, equilibrium_[j]);
+    } catch (const std::exception&) {
+      continue;  // temperatures stay; Newton starts from them
+    }
+    for (std::size_t j = 0; j < n; ++j) {
+      const bool bottom = j + 1 == n;
+      const double* gas_in = bottom ? feeds_.gas.data() : v_.data() + (j + 1) * gas_count_;
+      const double* gas_out = v_.data() + j * gas_count_;
+      energy[j] = above(j).liquid_enthalpy + gas_enthalpy_flow(gas_in, bottom ? feeds_.gas_temperature : t_[j + 1]) -
+                  equilibrium_[j].liquid_enthalpy - gas_enthalpy_flow(gas_out, t_[j]);
+    }
+    for (std::size_t j = 0; j < n; ++j) {
+      const double heat_capacity = liquid_heat_capacity * total(l_.data() + j * liquid_count_, liquid_count_) +
+                                   gas_heat_capacity * total(v_.data() + j * gas_count_, gas_count_);
+      const double step = std::clamp(energy[j] / heat_capacity, -largest_temperature_step, largest_temperature_step);
+      t_[j] = std::clamp(t_[j] + step, t_low, t_high);
     }
   }
   ColumnProfile profile;
