@@ -89,6 +89,8 @@ ColumnEquations::ColumnEquations(StageModel& model, const ColumnSpecification& s
   trial_ = empty;
   f_base_.assign(size(), 0.0);
   f_trial_.assign(size(), 0.0);
+  x_evaluated_.assign(size(), 0.0);
+  moved_.assign(size(), 0.0);
   // The liquor feed at its own temperature: its enthalpy enters the top stage. Stage index
   // `stages` is the feed's slot in the model.
   model_.evaluate(stages_, feeds.liquid_temperature, pressure_, feeds.liquid, feed_liquid_);
@@ -212,15 +214,22 @@ void ColumnEquations::residual(const double* x, double* f) {
                               std::to_string(i / block_ + 1) + ", unknown " + std::to_string(i % block_ + 1) + " = " +
                               std::to_string(x[i]) + ")");
   }
+  evaluated_ = false;
   for (std::size_t j = 0; j < stages_; ++j) read_stage(x, j);
   for (std::size_t j = 0; j < stages_; ++j) evaluate_stage(j, equilibrium_[j]);
   for (std::size_t j = 0; j < stages_; ++j) residual_block(j, above(j), equilibrium_[j], f + j * block_);
+  // Kept for the Jacobian, which KINSOL asks for at the point whose residual it has just had.
+  std::copy(x, x + size(), x_evaluated_.begin());
+  std::copy(f, f + size(), f_base_.begin());
+  evaluated_ = true;
 }
 
 void ColumnEquations::jacobian(const double* x, SUNMatrix band) {
-  residual(x, f_base_.data());
+  // The residual at x, with every stage's equilibrium, is at hand when x is the point last
+  // evaluated (KINSOL evaluates F where it then wants J): no stage is speciated twice.
+  if (!evaluated_ || !std::equal(x, x + size(), x_evaluated_.begin())) residual(x, f_trial_.data());
   SUNMatZero(band);
-  std::vector<double> moved(x, x + size());
+  std::copy(x, x + size(), moved_.begin());
   for (std::size_t j = 0; j < stages_; ++j) {
     const std::size_t first_row_block = j == 0 ? 0 : j - 1;
     const std::size_t last_row_block = std::min(j + 1, stages_ - 1);
@@ -228,9 +237,9 @@ void ColumnEquations::jacobian(const double* x, SUNMatrix band) {
       const std::size_t column = j * block_ + a;
       const bool is_temperature = a == temperature_slot();
       const double step = log_step * std::max(std::abs(is_temperature ? x[column] + temperature_floor_ : x[column] + log_flow_limit_), 1.0);
-      moved[column] = x[column] + step;
-      const double actual_step = moved[column] - x[column];  // the step as represented
-      read_stage(moved.data(), j);
+      moved_[column] = x[column] + step;
+      const double actual_step = moved_[column] - x[column];  // the step as represented
+      read_stage(moved_.data(), j);
       // Only a liquid flow or the temperature changes the stage's equilibrium.
       const bool changes_equilibrium = a < liquid_unknowns_.size() || is_temperature;
       if (changes_equilibrium) evaluate_stage(j, trial_);
@@ -244,7 +253,7 @@ void ColumnEquations::jacobian(const double* x, SUNMatrix band) {
           SM_ELEMENT_B(band, row, column) = (f_trial_[row] - f_base_[row]) / actual_step;
         }
       }
-      moved[column] = x[column];
+      moved_[column] = x[column];
       read_stage(x, j);
     }
   }

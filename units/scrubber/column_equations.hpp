@@ -84,6 +84,8 @@ class ColumnEquations {
   StageEquilibrium feed_liquid_;  // the liquor feed at its own temperature
   StageEquilibrium trial_;
   std::vector<double> f_base_, f_trial_;
+  std::vector<double> x_evaluated_, moved_;  // the point of the last residual; the Jacobian's moved unknowns
+  bool evaluated_ = false;                   // f_base_ and equilibrium_ hold F(x_evaluated_)
 };
 
 }  // namespace protonflow::scrubber::detail
