@@ -215,10 +215,26 @@ void ColumnEquations::residual(const double* x, double* f) {
   for (std::size_t j = 0; j < stages_; ++j) read_stage(x, j);
   for (std::size_t j = 0; j < stages_; ++j) evaluate_stage(j, equilibrium_[j]);
   for (std::size_t j = 0; j < stages_; ++j) residual_block(j, above(j), equilibrium_[j], f + j * block_);
+  // Each stage's speciation starts warm from that stage's last answer and meets its tolerance, not
+  // round-off: F at one point differs in the last digits (about 1e-12) from one evaluation to the
+  // next. KINSOL's line search assumes one F per point: where its step between a point that passed
+  // the sufficient-decrease test and one that failed it shrinks to nothing, it stops only when F at
+  // the passing point passes again, and near a point where Newton stalls a re-evaluation can fail
+  // it every time (docs/units.md, "Solution"). So a point asked again within one Newton step gets
+  // the F it got first; the stages are still evaluated, so the model's states are those at x.
+  const std::size_t n = size();
+  for (std::size_t at = 0; at < evaluated_.size(); at += 2 * n) {
+    if (!std::equal(x, x + n, evaluated_.begin() + static_cast<std::ptrdiff_t>(at))) continue;
+    std::copy_n(evaluated_.begin() + static_cast<std::ptrdiff_t>(at + n), n, f);
+    return;
+  }
+  evaluated_.insert(evaluated_.end(), x, x + n);
+  evaluated_.insert(evaluated_.end(), f, f + n);
 }
 
 void ColumnEquations::jacobian(const double* x, SUNMatrix band) {
   residual(x, f_base_.data());
+  evaluated_.clear();  // a new Newton step: F is remembered from here on
   SUNMatZero(band);
   std::vector<double> moved(x, x + size());
   for (std::size_t j = 0; j < stages_; ++j) {

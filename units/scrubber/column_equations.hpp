@@ -43,7 +43,9 @@ class ColumnEquations {
   void pack(const ColumnProfile& profile, double* x) const;
   ColumnProfile unpack(const double* x) const;
 
-  // F(x), every stage evaluated afresh. Throws what the stage model throws.
+  // F(x), every stage evaluated afresh (the stage model's states are then those at x). Throws what
+  // the stage model throws. Within one Newton step F is one function of x: a point asked again
+  // gets the F it got first (see residual() in column_equations.cpp).
   void residual(const double* x, double* f);
   // The banded Jacobian at x by difference quotients that follow the block structure: an
   // unknown of stage j moves only blocks j−1, j and j+1, and only stage j's equilibrium, so each
@@ -84,6 +86,8 @@ class ColumnEquations {
   StageEquilibrium feed_liquid_;  // the liquor feed at its own temperature
   StageEquilibrium trial_;
   std::vector<double> f_base_, f_trial_;
+  // The points evaluated since the last Jacobian and their F, each point's unknowns then its F.
+  std::vector<double> evaluated_;
 };
 
 }  // namespace protonflow::scrubber::detail
