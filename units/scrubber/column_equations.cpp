@@ -228,13 +228,21 @@ void ColumnEquations::residual(const double* x, double* f) {
     std::copy_n(evaluated_.begin() + static_cast<std::ptrdiff_t>(at + n), n, f);
     return;
   }
+  // A guard, not a limit met in practice: a line search takes some fifty points at most, twice
+  // that where it bisects back (docs/units.md, "Solution").
+  constexpr std::size_t most_points_per_step = 1000;
+  if (evaluated_.size() >= most_points_per_step * 2 * n)
+    throw std::runtime_error("the line search of one Newton step asked for more than " + std::to_string(most_points_per_step) +
+                             " points of the column");
   evaluated_.insert(evaluated_.end(), x, x + n);
   evaluated_.insert(evaluated_.end(), f, f + n);
 }
 
 void ColumnEquations::jacobian(const double* x, SUNMatrix band) {
   residual(x, f_base_.data());
-  evaluated_.clear();  // a new Newton step: F is remembered from here on
+  // A new Newton step: F is remembered from here on, starting with the point it starts from.
+  evaluated_.assign(x, x + size());
+  evaluated_.insert(evaluated_.end(), f_base_.begin(), f_base_.end());
   SUNMatZero(band);
   std::vector<double> moved(x, x + size());
   for (std::size_t j = 0; j < stages_; ++j) {
