@@ -54,8 +54,11 @@ double median(std::vector<double> values) {
 // iteration's typical step). Each solve is timed on its own; medians, the convergence rate and the
 // share of cases with a solid are reported as counters.
 void cold_and_warm_10000_cases(benchmark::State& state, const ChemicalSystem& system, const std::vector<double>& pressures,
-                               const std::vector<std::vector<double>>& cases = draw_cases(10000)) {
-  EquilibriumSolver solver(system);
+                               const std::vector<std::vector<double>>& cases = draw_cases(10000),
+                               NewtonForm form = NewtonForm::full) {
+  SolverOptions options;
+  options.form = form;
+  EquilibriumSolver solver(system, options);
   Speciation out;
   for (auto _ : state) {
     std::vector<double> cold_us, warm_us;
@@ -120,9 +123,11 @@ BENCHMARK(speciation_warm_nearby)->Iterations(1010)->Unit(benchmark::kMicrosecon
 // a concentrated brine (3 mol/kg NaCl with sulfate, carbonate, ammonia and calcium; I ≈ 3.5 mol/kg,
 // beyond Davies' range, which the result warns of), where the activity terms dominate the
 // Jacobian. Another activity model is one more pair of lines here.
-void speciation_warm_nearby_with(benchmark::State& state, ActivityModelKind model, bool brine) {
+void speciation_warm_nearby_in_form(benchmark::State& state, NewtonForm form, ActivityModelKind model, bool brine) {
   const ChemicalSystem system = benchmark_system(model);
-  EquilibriumSolver solver(system);
+  SolverOptions options;
+  options.form = form;
+  EquilibriumSolver solver(system, options);
   const std::vector<double> base = brine ? std::vector<double>{1.0 / constants::water_molar_mass, 3.0, 3.2, 0.3, 0.05, 0.1, 0.01}
                                          : draw_cases(1).front();
   auto nearby = base;
@@ -136,6 +141,10 @@ void speciation_warm_nearby_with(benchmark::State& state, ActivityModelKind mode
     benchmark::DoNotOptimize(out.ph);
   }
   state.counters["newton_iterations"] = static_cast<double>(out.iterations);
+}
+
+void speciation_warm_nearby_with(benchmark::State& state, ActivityModelKind model, bool brine) {
+  speciation_warm_nearby_in_form(state, NewtonForm::full, model, brine);
 }
 BENCHMARK_CAPTURE(speciation_warm_nearby_with, ideal, ActivityModelKind::ideal, false)->Unit(benchmark::kMicrosecond);
 BENCHMARK_CAPTURE(speciation_warm_nearby_with, b_dot, ActivityModelKind::b_dot, false)->Unit(benchmark::kMicrosecond);
@@ -156,10 +165,39 @@ BENCHMARK_CAPTURE(speciation_warm_nearby_with, pitzer, ActivityModelKind::pitzer
 BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_pitzer, ActivityModelKind::pitzer, true)->Iterations(10);
 BENCHMARK_CAPTURE(speciation_warm_nearby_with, brine_pitzer, ActivityModelKind::pitzer, true)->Iterations(1010);
 
+// The reduced form and the Schur complement of the full form (docs/performance.md, "Reduced form
+// and Schur complement"), on the benchmark system and the brine, Davies and Pitzer.
+BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, reduced_davies, NewtonForm::reduced, ActivityModelKind::davies, false)
+    ->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, schur_davies, NewtonForm::full_by_schur, ActivityModelKind::davies, false)
+    ->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, reduced_brine_davies, NewtonForm::reduced, ActivityModelKind::davies, true)
+    ->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, schur_brine_davies, NewtonForm::full_by_schur, ActivityModelKind::davies, true)
+    ->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, reduced_pitzer, NewtonForm::reduced, ActivityModelKind::pitzer, false)
+    ->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, reduced_brine_pitzer, NewtonForm::reduced, ActivityModelKind::pitzer, true)
+    ->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, reduced_davies, NewtonForm::reduced, ActivityModelKind::davies, false)->Iterations(10);
+BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, reduced_davies, NewtonForm::reduced, ActivityModelKind::davies, false)->Iterations(1010);
+BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, schur_davies, NewtonForm::full_by_schur, ActivityModelKind::davies, false)->Iterations(10);
+BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, schur_davies, NewtonForm::full_by_schur, ActivityModelKind::davies, false)->Iterations(1010);
+BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, reduced_brine_davies, NewtonForm::reduced, ActivityModelKind::davies, true)->Iterations(10);
+BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, reduced_brine_davies, NewtonForm::reduced, ActivityModelKind::davies, true)->Iterations(1010);
+BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, schur_brine_davies, NewtonForm::full_by_schur, ActivityModelKind::davies, true)->Iterations(10);
+BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, schur_brine_davies, NewtonForm::full_by_schur, ActivityModelKind::davies, true)->Iterations(1010);
+BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, reduced_pitzer, NewtonForm::reduced, ActivityModelKind::pitzer, false)->Iterations(10);
+BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, reduced_pitzer, NewtonForm::reduced, ActivityModelKind::pitzer, false)->Iterations(1010);
+BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, reduced_brine_pitzer, NewtonForm::reduced, ActivityModelKind::pitzer, true)->Iterations(10);
+BENCHMARK_CAPTURE(speciation_warm_nearby_in_form, reduced_brine_pitzer, NewtonForm::reduced, ActivityModelKind::pitzer, true)->Iterations(1010);
+
 // Cold solving through the drawn cases.
-void speciation_cold(benchmark::State& state) {
+void speciation_cold_in_form(benchmark::State& state, NewtonForm form) {
   const ChemicalSystem system = benchmark_system();
-  EquilibriumSolver solver(system);
+  SolverOptions options;
+  options.form = form;
+  EquilibriumSolver solver(system, options);
   const auto cases = draw_cases(1000);
   Speciation out;
   std::size_t k = 0;
@@ -169,9 +207,13 @@ void speciation_cold(benchmark::State& state) {
     benchmark::DoNotOptimize(out.ph);
   }
 }
+void speciation_cold(benchmark::State& state) { speciation_cold_in_form(state, NewtonForm::full); }
 BENCHMARK(speciation_cold)->Unit(benchmark::kMicrosecond);
 BENCHMARK(speciation_cold)->Iterations(10)->Unit(benchmark::kMicrosecond);
 BENCHMARK(speciation_cold)->Iterations(210)->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_cold_in_form, reduced, NewtonForm::reduced)->Unit(benchmark::kMicrosecond);
+BENCHMARK_CAPTURE(speciation_cold_in_form, reduced, NewtonForm::reduced)->Iterations(10);
+BENCHMARK_CAPTURE(speciation_cold_in_form, reduced, NewtonForm::reduced)->Iterations(210);
 
 // The same system with calcite and gypsum allowed to precipitate and CO2 open to air (42 Pa, about
 // 415 ppm at 1 atm: the atmosphere's CO2 around 2021, NOAA Mauna Loa annual mean, from memory).
@@ -190,6 +232,9 @@ void speciation_with_solids_and_air_10000_cases(benchmark::State& state) {
   cold_and_warm_10000_cases(state, system_with_phases(), {air_co2});
 }
 BENCHMARK(speciation_with_solids_and_air_10000_cases)->Iterations(1)->Unit(benchmark::kMillisecond);
+
+// The four sets of 10,000 in another Newton form: the robustness half of the comparison.
+void cases_10000_in_form(benchmark::State& state, NewtonForm form, int set);
 
 // The adiabatic problem: the temperature of a given enthalpy, each trial temperature a warm solve.
 void adiabatic_solve(benchmark::State& state) {
@@ -243,10 +288,13 @@ void pitzer_speciation_10000_cases(benchmark::State& state) {
 }
 BENCHMARK(pitzer_speciation_10000_cases)->Iterations(1)->Unit(benchmark::kMillisecond);
 
-void pitzer_brine_10000_cases(benchmark::State& state) {
+ChemicalSystem pitzer_brine_system() {
   SystemOptions options;
   options.activity = ActivityModelKind::pitzer;
-  const ChemicalSystem system(database(), {"H2O", "NaCl", "KCl", "CaCl2", "MgSO4", "HCl"}, options);
+  return ChemicalSystem(database(), {"H2O", "NaCl", "KCl", "CaCl2", "MgSO4", "HCl"}, options);
+}
+
+std::vector<std::vector<double>> pitzer_brine_cases() {
   std::mt19937_64 random(20261201);
   std::uniform_real_distribution<double> exponent(std::log10(0.05), std::log10(1.5));
   std::vector<std::vector<double>> cases;
@@ -255,9 +303,28 @@ void pitzer_brine_10000_cases(benchmark::State& state) {
     for (int c = 0; c < 5; ++c) amounts.push_back(std::pow(10.0, exponent(random)));
     cases.push_back(std::move(amounts));
   }
-  cold_and_warm_10000_cases(state, system, {}, cases);
+  return cases;
+}
+
+void pitzer_brine_10000_cases(benchmark::State& state) {
+  cold_and_warm_10000_cases(state, pitzer_brine_system(), {}, pitzer_brine_cases());
 }
 BENCHMARK(pitzer_brine_10000_cases)->Iterations(1)->Unit(benchmark::kMillisecond);
+
+void cases_10000_in_form(benchmark::State& state, NewtonForm form, int set) {
+  switch (set) {
+    case 0: cold_and_warm_10000_cases(state, benchmark_system(), {}, draw_cases(10000), form); break;
+    case 1: cold_and_warm_10000_cases(state, system_with_phases(), {air_co2}, draw_cases(10000), form); break;
+    case 2: cold_and_warm_10000_cases(state, pitzer_benchmark_system(), {}, draw_cases(10000), form); break;
+    default: cold_and_warm_10000_cases(state, pitzer_brine_system(), {}, pitzer_brine_cases(), form); break;
+  }
+}
+BENCHMARK_CAPTURE(cases_10000_in_form, reduced_speciation, NewtonForm::reduced, 0)->Iterations(1)->Unit(benchmark::kMillisecond);
+BENCHMARK_CAPTURE(cases_10000_in_form, reduced_with_solids_and_air, NewtonForm::reduced, 1)->Iterations(1)->Unit(benchmark::kMillisecond);
+BENCHMARK_CAPTURE(cases_10000_in_form, reduced_pitzer_speciation, NewtonForm::reduced, 2)->Iterations(1)->Unit(benchmark::kMillisecond);
+BENCHMARK_CAPTURE(cases_10000_in_form, reduced_pitzer_brine, NewtonForm::reduced, 3)->Iterations(1)->Unit(benchmark::kMillisecond);
+BENCHMARK_CAPTURE(cases_10000_in_form, schur_speciation, NewtonForm::full_by_schur, 0)->Iterations(1)->Unit(benchmark::kMillisecond);
+BENCHMARK_CAPTURE(cases_10000_in_form, schur_with_solids_and_air, NewtonForm::full_by_schur, 1)->Iterations(1)->Unit(benchmark::kMillisecond);
 
 }  // namespace
 

@@ -64,7 +64,7 @@ std::optional<double> hcl_out(const Case& c, int stages, double liquor_factor) {
 
 }  // namespace
 
-TEST_CASE("property: scrubber HCl removal is monotone in stages and liquor rate; every case converges or is a typed error") {
+TEST_CASE("property: scrubber HCl removal is monotone in stages and liquor rate, every case converges or is a typed error") {
   rc::prop("removal monotone", [] {
     Case c;
     c.stages = *rc::gen::inRange(1, 12);

@@ -66,7 +66,7 @@ TEST_CASE("villiaumite: NaF saturates where m(Na+) m(F-) is its Ksp") {
   CHECK(dissolved < 0.95);
 }
 
-TEST_CASE("fluoride removal: lime precipitates fluorite and sellaite stays undersaturated; without calcium sellaite sets F") {
+TEST_CASE("fluoride removal: lime precipitates fluorite and sellaite stays undersaturated, without calcium sellaite sets F") {
   SECTION("lime on HF with magnesium present") {
     const Equilibrium e = equilibrate({"HF", "MgCl2", "Ca(OH)2"}, {0.02, 0.005, 0.012}, {"fluorite", "sellaite"});
     CHECK(e.amount("fluorite") > 0.0095);
@@ -150,7 +150,7 @@ TEST_CASE("ferric salt on phosphate: strengite takes the phosphate at pH 3 to 4"
   CHECK(std::log10(e.molality("Fe^3+") * e.molality("H3PO4(aq)") / (h * h * h)) + 2.0 * water == Approx(-6.70).margin(0.001));
 }
 
-TEST_CASE("lime on phosphate: brushite at its Ksp and less soluble hot; hydroxyapatite where allowed takes more") {
+TEST_CASE("lime on phosphate: brushite at its Ksp and less soluble hot, hydroxyapatite where allowed takes more") {
   // Ca/P = 1 (CaHPO4 in the feed): brushite is the solid of the dose. Ksp = m(Ca^2+) m(HPO4^2-) a(H2O)^2
   // = 10^-6.59 at 25 °C (Gregory, Moreno & Brown 1970, read).
   const std::vector<std::string> components{"H3PO4", "Ca(OH)2"};
@@ -158,6 +158,21 @@ TEST_CASE("lime on phosphate: brushite at its Ksp and less soluble hot; hydroxya
   REQUIRE(brushite.amount("brushite") > 0.0);
   const double water = std::log10(brushite.state.water_activity);
   CHECK(std::log10(brushite.molality("Ca^2+") * brushite.molality("HPO4^2-")) + 2.0 * water == Approx(-6.59).margin(0.001));
+  // Moreno, Gregory & Brown 1966 (read, abstract): at brushite saturation the ion pair CaHPO4° is constant,
+  // whatever the pH, at Ks Kx = 10^(-6.59 + 2.401) (Gregory et al. 1970's Kx, read); with ideal activities
+  // m(CaHPO4°) a(H2O)^2 is that product. More acid (Ca/P 1/2, pH near 4) and less (Ca/P 1) give the same.
+  const Equilibrium acid = equilibrate(components, {0.02, 0.01}, {"brushite"});
+  REQUIRE(acid.amount("brushite") > 0.0);
+  CHECK(acid.state.ph < brushite.state.ph - 0.5);
+  for (const Equilibrium* e : {&brushite, &acid})
+    CHECK(std::log10(e->molality("CaHPO4(aq)")) + 2.0 * std::log10(e->state.water_activity) ==
+          Approx(-6.59 + 2.401).margin(0.001));
+  // The pairs dissolve calcium beyond the free ion, which alone would make brushite less soluble than it is:
+  // what stays dissolved is the free ion and the two pairs (no other calcium species forms in this liquor).
+  const double calcium_left = 0.01 - brushite.amount("brushite");
+  const double paired = brushite.molality("CaHPO4(aq)") + brushite.molality("CaH2PO4^+");
+  CHECK(paired > 0.05 * brushite.molality("Ca^2+"));
+  CHECK(calcium_left == Approx((brushite.molality("Ca^2+") + paired) * brushite.state.water_mass).epsilon(1e-3));
   // Gregory et al. 1970 (read): a negative temperature coefficient of solubility.
   const Equilibrium hot = equilibrate(components, {0.01, 0.01}, {"brushite"}, 333.15);
   CHECK(0.01 - hot.amount("brushite") < 0.01 - brushite.amount("brushite"));

@@ -123,7 +123,7 @@ TEST_CASE("fresh Zn(OH)2, Ni(OH)2, Al(OH)3, Fe(OH)3 and Cr(OH)3: minimum positio
   }
 }
 
-TEST_CASE("at 60 °C the hydroxide curves move; Al and Fe(III) minima move to lower pH") {
+TEST_CASE("at 60 °C the hydroxide curves move, Al and Fe(III) minima move to lower pH") {
   // pKw falls from 14.00 to 13.02 between 25 and 60 °C (IAPWS R11-07). Where every hydrolysis step has
   // its published enthalpy (Al and Fe(III): Nordstrom et al. 1990), the minimum of the curve moves to
   // lower pH with it. With every reaction enthalpy zero nothing would move at all.

@@ -932,7 +932,7 @@ TEST_CASE("acid_mixer: a mixture the ionic engine answers has a density from the
   CHECK_FALSE(warned(m.solution, "partial molar volume"));
 }
 
-TEST_CASE("acid_mixer: 98 % H2SO4 barely diluted gives off H2SO4 vapour and is warned of; diluted to 20 % it is not") {
+TEST_CASE("acid_mixer: 98 % H2SO4 barely diluted gives off H2SO4 vapour and is warned of, diluted to 20 % it is not") {
   // The warning's threshold: 1 mg/m³ in a saturated headspace, the NIOSH exposure limit for sulfuric
   // acid (niosh-pocket-guide, from memory). 1 kg/s of 98 % acid with 0.1 kg/s of water ends near 89 %
   // and, adiabatically, far above 100 °C: its H2SO4 vapour (Ayers et al. 1980 with the binary's own

@@ -383,7 +383,7 @@ TEST_CASE("neutraliser: parameters that do not fit the mode are refused", "[neut
   CHECK(create_error({{"outlet_temperature", 300.0}}).find("does not apply with energy adiabatic") != std::string::npos);
 }
 
-TEST_CASE("neutraliser property: pH rises with the dose; every target is met or refused as unreachable", "[neutraliser]") {
+TEST_CASE("neutraliser property: pH rises with the dose, every target is met or refused as unreachable", "[neutraliser]") {
   const host::Slate slate{{"H2O", "HCl", "H2SO4", "CH3COOH", "NaOH", "Ca(OH)2", "Na2CO3", "NH3", "Mg(OH)2"},
                           {"gypsum", "portlandite", "brucite", "calcite"}};
   const std::vector<std::string> acids{"HCl", "H2SO4", "CH3COOH"};
@@ -425,7 +425,7 @@ TEST_CASE("neutraliser property: pH rises with the dose; every target is met or 
   });
 }
 
-TEST_CASE("neutraliser: zinc and aluminium re-dissolve at high pH; fluoride precipitates as fluorite", "[neutraliser]") {
+TEST_CASE("neutraliser: zinc and aluminium re-dissolve at high pH, fluoride precipitates as fluorite", "[neutraliser]") {
   const auto dissolved_at = [](const host::Slate& slate, const host::StreamState& feed, const host::StreamState& reagent,
                                double ph, Result element, const std::string& form = "fresh") {
     const Dose d = run(at_25c({{"mode", std::string("target_ph")}, {"target_ph", ph}, {"precipitate_form", form}}), slate,

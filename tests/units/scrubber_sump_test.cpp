@@ -80,7 +80,7 @@ std::vector<ParameterValue> sump_parameters(double recirculation, double setpoin
 
 }  // namespace
 
-TEST_CASE("scrubber sump: component, charge, mass and energy balances of the unit close; the setpoint is held",
+TEST_CASE("scrubber sump: component, charge, mass and energy balances of the unit close, the setpoint is held",
           "[scrubber][sump]") {
   auto unit = scrubber_module().create("scrubber", sump_parameters(0.5, 8.0), sump_slate);
   const host::StreamState gas = vent(2e-3);

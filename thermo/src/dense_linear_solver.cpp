@@ -1,5 +1,6 @@
 #include "dense_linear_solver.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <new>
 #include <nvector/nvector_serial.h>
@@ -43,36 +44,14 @@ void subtract_multiples(double* __restrict y1, double* __restrict y2, const doub
   }
 }
 
+}  // namespace
+
 // LU with partial pivoting, in place: A = P L U with L unit lower, both stored in A; pivot[k] is
 // the row swapped with row k at step k [golub-van-loan-2013, §3.4], column-major.
 // Hand-written because at 10–40 unknowns Eigen's blocked LU spends more on blocking than on
 // arithmetic (docs/performance.md); the trailing update goes two columns at a time, which at these
 // sizes saves a fifth of the instructions of one column at a time.
-struct DenseLU {
-  explicit DenseLU(sunindextype size) : n(size), pivot(static_cast<std::size_t>(size)) {}
-  sunindextype n;
-  std::vector<sunindextype> pivot;
-  const double* lu = nullptr;  // the factored matrix
-  sunindextype last_flag = 0;
-};
-
-DenseLU& lu(SUNLinearSolver solver) { return *static_cast<DenseLU*>(solver->content); }
-
-SUNLinearSolver_Type get_type(SUNLinearSolver) { return SUNLINEARSOLVER_DIRECT; }
-SUNLinearSolver_ID get_id(SUNLinearSolver) { return SUNLINEARSOLVER_CUSTOM; }
-int initialize(SUNLinearSolver) { return SUNLS_SUCCESS; }
-
-int setup(SUNLinearSolver solver, SUNMatrix matrix) {
-  DenseLU& s = lu(solver);
-  DenseJacobian& j = jacobian(matrix);
-  if (j.keep) {
-    j.keep = false;
-    return s.last_flag == 0 ? SUNLS_SUCCESS : SUNLS_LUFACT_FAIL;
-  }
-  const sunindextype n = s.n;
-  double* a = j.data.data();
-  s.lu = a;
-  s.last_flag = 0;
+sunindextype factor_in_place(double* a, sunindextype n, sunindextype* pivot) {
   for (sunindextype k = 0; k < n; ++k) {
     double* column_k = a + k * n;
     sunindextype p = k;
@@ -82,13 +61,10 @@ int setup(SUNLinearSolver solver, SUNMatrix matrix) {
         largest = std::abs(column_k[i]);
         p = i;
       }
-    s.pivot[static_cast<std::size_t>(k)] = p;
-    // A zero or non-finite pivot is a failed factorisation; last_flag is its 1-based column, as
+    pivot[k] = p;
+    // A zero or non-finite pivot is a failed factorisation, reported as its 1-based column, as
     // SUNDIALS' dense solver reports it.
-    if (largest == 0.0 || !std::isfinite(largest)) {
-      s.last_flag = k + 1;
-      return SUNLS_LUFACT_FAIL;
-    }
+    if (largest == 0.0 || !std::isfinite(largest)) return k + 1;
     if (p != k) {
       double* row_k = a + k;
       double* row_p = a + p;
@@ -113,21 +89,13 @@ int setup(SUNLinearSolver solver, SUNMatrix matrix) {
     }
     if (column_j < end && column_j[k] != 0.0) subtract_multiple(column_j + k + 1, l_k, column_j[k], below);
   }
-  return SUNLS_SUCCESS;
+  return 0;
 }
 
-// x = U⁻¹ L⁻¹ P b.
-int solve(SUNLinearSolver solver, SUNMatrix, N_Vector x, N_Vector b, realtype) {
-  const DenseLU& s = lu(solver);
-  const sunindextype n = s.n;
-  const double* a = s.lu;
-  double* y = N_VGetArrayPointer(x);
-  const double* rhs = N_VGetArrayPointer(b);
-  if (y != rhs)
-    for (sunindextype i = 0; i < n; ++i) y[i] = rhs[i];
+void solve_in_place(const double* a, sunindextype n, const sunindextype* pivot, double* y) {
   // The row swaps were applied to whole rows, L's columns included: permute b first, then solve.
   for (sunindextype k = 0; k < n; ++k) {
-    const sunindextype p = s.pivot[static_cast<std::size_t>(k)];
+    const sunindextype p = pivot[k];
     if (p != k) std::swap(y[k], y[p]);
   }
   for (sunindextype k = 0; k + 1 < n; ++k)
@@ -137,6 +105,45 @@ int solve(SUNLinearSolver solver, SUNMatrix, N_Vector x, N_Vector b, realtype) {
     y[k] /= column_k[k];
     if (y[k] != 0.0) subtract_multiple(y, column_k, y[k], k);
   }
+}
+
+namespace {
+
+// The LU of the Newton matrix behind SUNDIALS' linear-solver interface.
+struct DenseLU {
+  explicit DenseLU(sunindextype size) : n(size), pivot(static_cast<std::size_t>(size)) {}
+  sunindextype n;
+  std::vector<sunindextype> pivot;
+  const double* lu = nullptr;  // the factored matrix
+  sunindextype last_flag = 0;
+};
+
+DenseLU& lu(SUNLinearSolver solver) { return *static_cast<DenseLU*>(solver->content); }
+
+SUNLinearSolver_Type get_type(SUNLinearSolver) { return SUNLINEARSOLVER_DIRECT; }
+SUNLinearSolver_ID get_id(SUNLinearSolver) { return SUNLINEARSOLVER_CUSTOM; }
+int initialize(SUNLinearSolver) { return SUNLS_SUCCESS; }
+
+int setup(SUNLinearSolver solver, SUNMatrix matrix) {
+  DenseLU& s = lu(solver);
+  DenseJacobian& j = jacobian(matrix);
+  if (j.keep) {
+    j.keep = false;
+    return s.last_flag == 0 ? SUNLS_SUCCESS : SUNLS_LUFACT_FAIL;
+  }
+  s.lu = j.data.data();
+  s.last_flag = factor_in_place(j.data.data(), s.n, s.pivot.data());
+  return s.last_flag == 0 ? SUNLS_SUCCESS : SUNLS_LUFACT_FAIL;
+}
+
+// x = U⁻¹ L⁻¹ P b.
+int solve(SUNLinearSolver solver, SUNMatrix, N_Vector x, N_Vector b, realtype) {
+  const DenseLU& s = lu(solver);
+  double* y = N_VGetArrayPointer(x);
+  const double* rhs = N_VGetArrayPointer(b);
+  if (y != rhs)
+    for (sunindextype i = 0; i < s.n; ++i) y[i] = rhs[i];
+  solve_in_place(s.lu, s.n, s.pivot.data(), y);
   return SUNLS_SUCCESS;
 }
 
@@ -181,6 +188,135 @@ SUNLinearSolver make_dense_lu_solver(SUNContext context, sunindextype n) {
   solver->ops->lastflag = last_flag;
   solver->ops->free = free_solver;
   solver->content = new (std::nothrow) DenseLU(n);
+  if (!solver->content) {
+    SUNLinSolFreeEmpty(solver);
+    return nullptr;
+  }
+  return solver;
+}
+
+}  // namespace protonflow::thermo::detail
+
+namespace protonflow::thermo::detail {
+
+SchurComplement::SchurComplement(std::size_t n, std::size_t begin, std::size_t end)
+    : n_(n),
+      begin_(begin),
+      inner_(end - begin),
+      outer_(n - (end - begin)),
+      inner_lu_(inner_ * inner_),
+      inner_pivot_(inner_),
+      inner_solved_(inner_ * outer_),
+      inner_rhs_(inner_),
+      outer_rhs_(outer_) {}
+
+sunindextype SchurComplement::form(const double* j, double* s) {
+  const auto ni = static_cast<sunindextype>(inner_);
+  for (std::size_t c = 0; c < inner_; ++c)
+    std::copy(j + (begin_ + c) * n_ + begin_, j + (begin_ + c) * n_ + begin_ + inner_, inner_lu_.begin() + static_cast<std::ptrdiff_t>(c * inner_));
+  if (const sunindextype failed = factor_in_place(inner_lu_.data(), ni, inner_pivot_.data()); failed != 0) return failed;
+  for (std::size_t oc = 0; oc < outer_; ++oc) {
+    const double* column = j + full(oc) * n_;
+    double* solved = inner_solved_.data() + oc * inner_;
+    std::copy(column + begin_, column + begin_ + inner_, solved);
+    solve_in_place(inner_lu_.data(), ni, inner_pivot_.data(), solved);
+    double* s_column = s + oc * outer_;
+    for (std::size_t orow = 0; orow < outer_; ++orow) s_column[orow] = column[full(orow)];
+    for (std::size_t c = 0; c < inner_; ++c) {
+      const double w = solved[c];
+      if (w == 0.0) continue;
+      const double* j_oi = j + (begin_ + c) * n_;  // column begin_ + c of J, at the outer rows
+      for (std::size_t orow = 0; orow < outer_; ++orow) s_column[orow] -= j_oi[full(orow)] * w;
+    }
+  }
+  return 0;
+}
+
+void SchurComplement::solve(const double* j, const double* s_lu, const sunindextype* s_pivot, double* y) {
+  std::copy(y + begin_, y + begin_ + inner_, inner_rhs_.begin());
+  solve_in_place(inner_lu_.data(), static_cast<sunindextype>(inner_), inner_pivot_.data(), inner_rhs_.data());
+  for (std::size_t orow = 0; orow < outer_; ++orow) {
+    double value = y[full(orow)];
+    for (std::size_t c = 0; c < inner_; ++c) value -= j[(begin_ + c) * n_ + full(orow)] * inner_rhs_[c];
+    outer_rhs_[orow] = value;
+  }
+  solve_in_place(s_lu, static_cast<sunindextype>(outer_), s_pivot, outer_rhs_.data());
+  for (std::size_t c = 0; c < inner_; ++c) {
+    double value = inner_rhs_[c];
+    for (std::size_t oc = 0; oc < outer_; ++oc) value -= inner_solved_[oc * inner_ + c] * outer_rhs_[oc];
+    y[begin_ + c] = value;
+  }
+  for (std::size_t orow = 0; orow < outer_; ++orow) y[full(orow)] = outer_rhs_[orow];
+}
+
+}  // namespace protonflow::thermo::detail
+
+namespace protonflow::thermo::detail {
+
+namespace {
+
+// The same Newton step by block elimination of [begin, end): the Jacobian stays as written, the
+// solver holds J_ii's LU and the LU of its Schur complement.
+struct SchurLU {
+  SchurLU(sunindextype n, std::size_t begin, std::size_t end)
+      : schur(static_cast<std::size_t>(n), begin, end),
+        s(schur.outer_size() * schur.outer_size()),
+        pivot(schur.outer_size()) {}
+  SchurComplement schur;
+  std::vector<double> s;
+  std::vector<sunindextype> pivot;
+  const double* j = nullptr;
+  sunindextype last_flag = 0;
+};
+
+SchurLU& schur_lu(SUNLinearSolver solver) { return *static_cast<SchurLU*>(solver->content); }
+
+int schur_setup(SUNLinearSolver solver, SUNMatrix matrix) {
+  SchurLU& s = schur_lu(solver);
+  DenseJacobian& j = jacobian(matrix);
+  if (j.keep) {
+    j.keep = false;
+    return s.last_flag == 0 ? SUNLS_SUCCESS : SUNLS_LUFACT_FAIL;
+  }
+  s.j = j.data.data();
+  s.last_flag = s.schur.form(s.j, s.s.data());
+  if (s.last_flag == 0) s.last_flag = factor_in_place(s.s.data(), static_cast<sunindextype>(s.schur.outer_size()), s.pivot.data());
+  return s.last_flag == 0 ? SUNLS_SUCCESS : SUNLS_LUFACT_FAIL;
+}
+
+int schur_solve(SUNLinearSolver solver, SUNMatrix, N_Vector x, N_Vector b, realtype) {
+  SchurLU& s = schur_lu(solver);
+  double* y = N_VGetArrayPointer(x);
+  const double* rhs = N_VGetArrayPointer(b);
+  const auto n = static_cast<std::size_t>(N_VGetLength(x));
+  if (y != rhs) std::copy(rhs, rhs + n, y);
+  s.schur.solve(s.j, s.s.data(), s.pivot.data(), y);
+  return SUNLS_SUCCESS;
+}
+
+sunindextype schur_last_flag(SUNLinearSolver solver) { return schur_lu(solver).last_flag; }
+
+int schur_free(SUNLinearSolver solver) {
+  if (!solver) return SUNLS_SUCCESS;
+  delete static_cast<SchurLU*>(solver->content);
+  solver->content = nullptr;
+  SUNLinSolFreeEmpty(solver);
+  return SUNLS_SUCCESS;
+}
+
+}  // namespace
+
+SUNLinearSolver make_schur_lu_solver(SUNContext context, sunindextype n, std::size_t begin, std::size_t end) {
+  SUNLinearSolver solver = SUNLinSolNewEmpty(context);
+  if (!solver) return nullptr;
+  solver->ops->gettype = get_type;
+  solver->ops->getid = get_id;
+  solver->ops->initialize = initialize;
+  solver->ops->setup = schur_setup;
+  solver->ops->solve = schur_solve;
+  solver->ops->lastflag = schur_last_flag;
+  solver->ops->free = schur_free;
+  solver->content = new (std::nothrow) SchurLU(n, begin, end);
   if (!solver->content) {
     SUNLinSolFreeEmpty(solver);
     return nullptr;

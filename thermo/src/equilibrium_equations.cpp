@@ -125,7 +125,7 @@ void EquilibriumSolver::Impl::residual(const double* x, double* f) {
 
 int EquilibriumSolver::Impl::jacobian_callback(N_Vector u, N_Vector fu, SUNMatrix jm, void* user_data, N_Vector, N_Vector) {
   auto* self = static_cast<Impl*>(user_data);
-  if (self->chord_step(N_VGetArrayPointer(fu))) {
+  if (self->chord_step(N_VGetArrayPointer(fu), N_VGetArrayPointer(self->f_scale), self->size)) {
     detail::keep_factorization(jm);
     return 0;
   }
@@ -139,12 +139,11 @@ int EquilibriumSolver::Impl::jacobian_callback(N_Vector u, N_Vector fu, SUNMatri
 // a new one: the error falls by the factor of the Jacobian's change over one step, which is itself
 // of the order of the residual then (docs/equilibrium.md, "Solving with KINSOL"). A new Jacobian
 // and LU cost three times a chord step's residual, solve and KINSOL's vector work.
-bool EquilibriumSolver::Impl::chord_step(const double* f) {
+bool EquilibriumSolver::Impl::chord_step(const double* f, const double* scale, std::size_t length) {
   constexpr double chord_residual = 1e-6;  // scaled max-norm of F below which a chord step serves
   constexpr int most_chord_steps = 2;
   if (reuse_factorization || !factored_this_call || chord_steps >= most_chord_steps) return false;
-  const double* scale = N_VGetArrayPointer(f_scale);
-  for (std::size_t i = 0; i < size; ++i)
+  for (std::size_t i = 0; i < length; ++i)
     if (!(std::abs(f[i] * scale[i]) <= chord_residual)) return false;
   ++chord_steps;
   return true;
@@ -166,7 +165,11 @@ void EquilibriumSolver::Impl::jacobian(const double* x, SUNMatrix jm) {
   factored_pressure = pressure;
   std::copy(solid_present.begin(), solid_present.end(), factored_solid_present.begin());
   factored_gas_phase_present = gas_phase_present;
-  double* data = detail::dense_jacobian_data(jm);  // column-major, size × size
+  jacobian_entries(x, detail::dense_jacobian_data(jm));
+}
+
+void EquilibriumSolver::Impl::jacobian_entries(const double* x, double* data) {
+  evaluate_molalities(x);
   std::fill(data, data + size * size, 0.0);
   const auto at = [&](std::size_t row, std::size_t column) -> double& { return data[column * size + row]; };
   const double* dg = evaluation.d_ln_gamma_d_molality.data();

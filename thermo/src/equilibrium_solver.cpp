@@ -104,6 +104,18 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
   activity = make_activity_model(chemical_system.options().activity, std::move(properties));
 
   // KINSOL set-up, once per solver: context, vectors, dense matrix and linear solver, options.
+  // The reduced form gives KINSOL its own, shorter vectors; u, f_scale and f_work stay full-size.
+  const bool reduced = options.form == NewtonForm::reduced;
+  reduced_size = size - (n - nb);
+  if (reduced) {
+    full_x.assign(size, 0.0);
+    full_f.assign(size, 0.0);
+    full_jacobian.assign(size * size, 0.0);
+    secondary_matrix.assign((n - nb) * (n - nb), 0.0);
+    secondary_step.assign(n - nb, 0.0);
+    secondary_pivot.assign(n - nb, 0);
+    schur = std::make_unique<detail::SchurComplement>(size, nb, n);
+  }
   check_flag(SUNContext_Create(nullptr, &context), "SUNContext_Create");
   const auto length = static_cast<sunindextype>(size);
   u = check_created(N_VNew_Serial(length, context), "N_VNew_Serial");
@@ -112,8 +124,16 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
   f_work = check_created(N_VNew_Serial(length, context), "N_VNew_Serial");
   N_VConst(1.0, u);
   N_VConst(1.0, u_scale);  // ln m and ln W are already well scaled
+  const auto newton_length = static_cast<sunindextype>(reduced ? reduced_size : size);
+  if (reduced) {
+    reduced_u = check_created(N_VNew_Serial(newton_length, context), "N_VNew_Serial");
+    reduced_u_scale = check_created(N_VNew_Serial(newton_length, context), "N_VNew_Serial");
+    reduced_f_scale = check_created(N_VNew_Serial(newton_length, context), "N_VNew_Serial");
+    N_VConst(1.0, reduced_u);
+    N_VConst(1.0, reduced_u_scale);
+  }
   kinsol = check_created(KINCreate(context), "KINCreate");
-  check_flag(KINInit(kinsol, residual_callback, u), "KINInit");
+  check_flag(KINInit(kinsol, reduced ? reduced_residual_callback : residual_callback, reduced ? reduced_u : u), "KINInit");
   check_flag(KINSetUserData(kinsol, this), "KINSetUserData");
   check_flag(KINSetErrHandlerFn(kinsol, error_callback, this), "KINSetErrHandlerFn");
   check_flag(KINSetFuncNormTol(kinsol, options.tolerance), "KINSetFuncNormTol");
@@ -122,10 +142,12 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
   // KINSOL asks for a Jacobian every step; the callback keeps the LU it holds where a chord step serves.
   check_flag(KINSetMaxSetupCalls(kinsol, 1), "KINSetMaxSetupCalls");
   check_flag(KINSetMaxNewtonStep(kinsol, 20.0 * std::sqrt(static_cast<double>(size))), "KINSetMaxNewtonStep");
-  jacobian_matrix = check_created(detail::make_dense_jacobian(context, length), "make_dense_jacobian");
-  linear_solver = check_created(detail::make_dense_lu_solver(context, length), "make_dense_lu_solver");
+  jacobian_matrix = check_created(detail::make_dense_jacobian(context, newton_length), "make_dense_jacobian");
+  linear_solver = options.form == NewtonForm::full_by_schur
+                      ? check_created(detail::make_schur_lu_solver(context, length, nb, n), "make_schur_lu_solver")
+                      : check_created(detail::make_dense_lu_solver(context, newton_length), "make_dense_lu_solver");
   check_flag(KINSetLinearSolver(kinsol, linear_solver, jacobian_matrix), "KINSetLinearSolver");
-  check_flag(KINSetJacFn(kinsol, jacobian_callback), "KINSetJacFn");
+  check_flag(KINSetJacFn(kinsol, reduced ? reduced_jacobian_callback : jacobian_callback), "KINSetJacFn");
 }
 
 EquilibriumSolver::Impl::~Impl() {
@@ -133,6 +155,11 @@ EquilibriumSolver::Impl::~Impl() {
   KINFree(&kinsol);
   SUNLinSolFree(linear_solver);
   SUNMatDestroy(jacobian_matrix);
+  if (reduced_u) {
+    N_VDestroy(reduced_f_scale);
+    N_VDestroy(reduced_u_scale);
+    N_VDestroy(reduced_u);
+  }
   N_VDestroy(f_work);
   N_VDestroy(f_scale);
   N_VDestroy(u_scale);
@@ -165,10 +192,8 @@ int EquilibriumSolver::Impl::run_newton() {
   return run_kinsol(KIN_NONE);
 }
 
-int EquilibriumSolver::Impl::run_kinsol(int strategy) {
-  // Scale each residual by its natural size, so the tolerance is relative for every balance.
-  double* x = N_VGetArrayPointer(u);
-  double* scale = N_VGetArrayPointer(f_scale);
+// Scale each residual by its natural size, so the tolerance is relative for every balance.
+void EquilibriumSolver::Impl::set_residual_scales(const double* x, double* scale) {
   evaluate_molalities(x);
   double charge_scale = 0.0;
   for (std::size_t i = 0; i < n; ++i) charge_scale += 0.5 * std::abs(charge[i]) * molality[i];
@@ -187,11 +212,36 @@ int EquilibriumSolver::Impl::run_kinsol(int strategy) {
     scale[b] = 1.0 / (natural > 0.0 ? natural : uptake_scale);
   }
   scale[n] = 1.0 / water_total;
+  scale_mass_action_rows(x, scale);
+}
+
+int EquilibriumSolver::Impl::run_kinsol(int strategy) {
+  double* x = N_VGetArrayPointer(u);
+  double* scale = N_VGetArrayPointer(f_scale);
+  set_residual_scales(x, scale);
   factored_this_call = false;
   chord_steps = 0;
-  scale_mass_action_rows(x, scale);
-  // Solve, then check the flag.
-  const int flag = KINSol(kinsol, u, strategy, u_scale, f_scale);
+  int flag = 0;
+  if (options.form == NewtonForm::reduced) {
+    // The reduced unknowns and their scales are the full form's outside the mass-action block; the
+    // secondary ln m start where x has them and end solving their rows at the answer.
+    double* y = N_VGetArrayPointer(reduced_u);
+    double* y_scale = N_VGetArrayPointer(reduced_f_scale);
+    std::copy(x, x + size, full_x.begin());
+    for (std::size_t r = 0; r < reduced_size; ++r) {
+      y[r] = x[full_index(r)];
+      y_scale[r] = scale[full_index(r)];
+    }
+    flag = KINSol(kinsol, reduced_u, strategy, reduced_u_scale, reduced_f_scale);
+    bool at_y = true;
+    for (std::size_t r = 0; r < reduced_size; ++r) at_y = at_y && full_x[full_index(r)] == y[r];
+    if (!at_y) reduced_residual(y, N_VGetArrayPointer(f_work));
+    std::copy(full_x.begin(), full_x.end(), x);
+  } else {
+    // Solve, then check the flag.
+    flag = KINSol(kinsol, u, strategy, u_scale, f_scale);
+  }
+  KINGetNumNonlinSolvIters(kinsol, &newton_iterations);
   reuse_factorization = false;  // only ever for the first step of a warm solve
   if (flag < 0) factorization_current = false;
   return flag;
@@ -270,9 +320,7 @@ void EquilibriumSolver::Impl::fill(Speciation& out, bool warm) {
     if (out.gas_phase_present) out.gas_amount[g] = phase_scale * x[phase_offset + g];
   }
 
-  long iterations = 0;
-  KINGetNumNonlinSolvIters(kinsol, &iterations);
-  out.iterations = iterations;
+  out.iterations = newton_iterations;
   out.residual_norm = scaled_residual_norm(true);  // F at the answer is KINSOL's last evaluation
   out.warm_started = warm;
   out.activity_model_limit = activity->maximum_ionic_strength();
@@ -324,8 +372,7 @@ void EquilibriumSolver::Impl::solve(double t, double p, std::span<const double> 
   }
   if (!converged) {
     has_previous = false;
-    long iterations = 0;
-    KINGetNumNonlinSolvIters(kinsol, &iterations);
+    const long iterations = newton_iterations;
     throw ConvergenceError(
         fmt::format("speciation did not converge at {:.2f} K (KINSOL {}: {}); scaled residual max-norm {:.3g}",
                     t, flag_name(last_flag), kinsol_message, scaled_residual_norm()),

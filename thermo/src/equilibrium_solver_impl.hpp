@@ -15,6 +15,7 @@
 #include <vector>
 
 #include "initial_guess.hpp"
+#include "dense_linear_solver.hpp"
 #include "protonflow/thermo/equilibrium_solver.hpp"
 #include "protonflow/thermo/errors.hpp"
 
@@ -43,6 +44,18 @@ struct EquilibriumSolver::Impl {
   void evaluate_molalities(const double* u);
   void residual(const double* u, double* f);
   void jacobian(const double* u, SUNMatrix jacobian_matrix);
+  void jacobian_entries(const double* u, double* data);  // column-major, size × size
+  // The reduced form (docs/equilibrium.md, "Reduced form"): its unknowns are the full form's less
+  // the secondary solutes' ln m, [0, nb) and [n, size); the secondary ln m solve their mass-action
+  // rows inside the residual, and the Jacobian is the Schur complement of the mass-action block.
+  bool solve_secondary(double* x);
+  bool reduced_residual(const double* y, double* f);
+  bool reduced_jacobian(const double* y, double* data);
+  static int reduced_residual_callback(N_Vector y, N_Vector f, void* user_data) {
+    return static_cast<Impl*>(user_data)->reduced_residual(N_VGetArrayPointer(y), N_VGetArrayPointer(f)) ? 0 : 1;
+  }
+  static int reduced_jacobian_callback(N_Vector y, N_Vector fy, SUNMatrix jacobian_matrix, void* user_data, N_Vector, N_Vector);
+  std::size_t full_index(std::size_t reduced_index) const { return reduced_index < nb ? reduced_index : reduced_index + n - nb; }
   // ln of a solid's saturation ratio or a gas's p/p°: ln K + Σ_b ν_b ln a_b + ν_w ln a_w, and its
   // gradient over the solute unknowns.
   double phase_log_activity(const PhaseSpecies& p, double ln_k_phase) const;
@@ -58,7 +71,7 @@ struct EquilibriumSolver::Impl {
   }
   static int jacobian_callback(N_Vector u, N_Vector fu, SUNMatrix jacobian_matrix, void* user_data, N_Vector, N_Vector);
   // Whether the next step may keep the LU already held (a chord step) instead of a new Jacobian.
-  bool chord_step(const double* f);
+  bool chord_step(const double* f, const double* scale, std::size_t length);
 
   double jacobian_finite_difference_error(double offset);
   void set_totals(std::span<const double> amounts, std::span<const double> open_gas_pressures);
@@ -71,6 +84,7 @@ struct EquilibriumSolver::Impl {
   bool solve_current_set();
   bool replace_rival(std::size_t added);
   int run_kinsol(int strategy);
+  void set_residual_scales(const double* u, double* scale);
   void scale_mass_action_rows(const double* u, double* scale) const;
   int run_newton();
   bool accepted(int flag);
@@ -144,9 +158,18 @@ struct EquilibriumSolver::Impl {
   };
   std::vector<std::vector<Term>> terms;
 
+  // The reduced form's state: its size, the full u and F it works through, the full Jacobian and
+  // its Schur complement, and the secondary solve's Newton matrix (sized once).
+  std::size_t reduced_size = 0;
+  std::vector<double> full_x, full_f, full_jacobian, secondary_matrix, secondary_step;
+  std::vector<sunindextype> secondary_pivot;
+  std::unique_ptr<detail::SchurComplement> schur;
+
   SUNContext context = nullptr;
   void* kinsol = nullptr;
   N_Vector u = nullptr, u_scale = nullptr, f_scale = nullptr, f_work = nullptr;
+  long newton_iterations = 0;  // Newton steps of the latest KINSOL call
+  N_Vector reduced_u = nullptr, reduced_u_scale = nullptr, reduced_f_scale = nullptr;  // reduced form only
   SUNMatrix jacobian_matrix = nullptr;
   SUNLinearSolver linear_solver = nullptr;
 };

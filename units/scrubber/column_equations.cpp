@@ -89,6 +89,8 @@ ColumnEquations::ColumnEquations(StageModel& model, const ColumnSpecification& s
   trial_ = empty;
   f_base_.assign(size(), 0.0);
   f_trial_.assign(size(), 0.0);
+  x_evaluated_.assign(size(), 0.0);
+  moved_.assign(size(), 0.0);
   // The liquor feed at its own temperature: its enthalpy enters the top stage. Stage index
   // `stages` is the feed's slot in the model.
   model_.evaluate(stages_, feeds.liquid_temperature, pressure_, feeds.liquid, feed_liquid_);
@@ -212,39 +214,57 @@ void ColumnEquations::residual(const double* x, double* f) {
                               std::to_string(i / block_ + 1) + ", unknown " + std::to_string(i % block_ + 1) + " = " +
                               std::to_string(x[i]) + ")");
   }
+  evaluated_ = false;
   for (std::size_t j = 0; j < stages_; ++j) read_stage(x, j);
   for (std::size_t j = 0; j < stages_; ++j) evaluate_stage(j, equilibrium_[j]);
   for (std::size_t j = 0; j < stages_; ++j) residual_block(j, above(j), equilibrium_[j], f + j * block_);
+  // Kept for the Jacobian, which KINSOL asks for at the point whose residual it has just had.
+  std::copy(x, x + size(), x_evaluated_.begin());
+  std::copy(f, f + size(), f_base_.begin());
+  evaluated_ = true;
   // Each stage's speciation starts warm from that stage's last answer and meets its tolerance, not
   // round-off: F at one point differs in the last digits (about 1e-12) from one evaluation to the
   // next. KINSOL's line search assumes one F per point: where its step between a point that passed
   // the sufficient-decrease test and one that failed it shrinks to nothing, it stops only when F at
   // the passing point passes again, and near a point where Newton stalls a re-evaluation can fail
   // it every time (docs/units.md, "Solution"). So a point asked again within one Newton step gets
-  // the F it got first; the stages are still evaluated, so the model's states are those at x.
+  // the F it got first; the stages are still evaluated, so the model's states, equilibrium_ and
+  // f_base_ are those of this evaluation at x.
   const std::size_t n = size();
-  for (std::size_t at = 0; at < evaluated_.size(); at += 2 * n) {
-    if (!std::equal(x, x + n, evaluated_.begin() + static_cast<std::ptrdiff_t>(at))) continue;
-    std::copy_n(evaluated_.begin() + static_cast<std::ptrdiff_t>(at + n), n, f);
+  for (std::size_t at = 0; at < remembered_.size(); at += 2 * n) {
+    if (!std::equal(x, x + n, remembered_.begin() + static_cast<std::ptrdiff_t>(at))) continue;
+    std::copy_n(remembered_.begin() + static_cast<std::ptrdiff_t>(at + n), n, f);
     return;
   }
   // A guard, not a limit met in practice: a line search takes some fifty points at most, twice
   // that where it bisects back (docs/units.md, "Solution").
   constexpr std::size_t most_points_per_step = 1000;
-  if (evaluated_.size() >= most_points_per_step * 2 * n)
+  if (remembered_.size() >= most_points_per_step * 2 * n)
     throw std::runtime_error("the line search of one Newton step asked for more than " + std::to_string(most_points_per_step) +
                              " points of the column");
-  evaluated_.insert(evaluated_.end(), x, x + n);
-  evaluated_.insert(evaluated_.end(), f, f + n);
+  remembered_.insert(remembered_.end(), x, x + n);
+  remembered_.insert(remembered_.end(), f, f + n);
 }
 
 void ColumnEquations::jacobian(const double* x, SUNMatrix band) {
-  residual(x, f_base_.data());
-  // A new Newton step: F is remembered from here on, starting with the point it starts from.
-  evaluated_.assign(x, x + size());
-  evaluated_.insert(evaluated_.end(), f_base_.begin(), f_base_.end());
+  // The residual at x, with every stage's equilibrium, is at hand when x is the point last
+  // evaluated (KINSOL evaluates F where it then wants J): no stage is speciated twice.
+  if (!evaluated_ || !std::equal(x, x + size(), x_evaluated_.begin())) residual(x, f_trial_.data());
+  // A new Newton step: F is remembered from here on, starting with the point it starts from and
+  // the F KINSOL has for it.
+  const std::size_t n = size();
+  std::size_t start = remembered_.size();
+  for (std::size_t at = 0; at < remembered_.size(); at += 2 * n)
+    if (std::equal(x, x + n, remembered_.begin() + static_cast<std::ptrdiff_t>(at))) start = at;
+  if (start == remembered_.size()) {
+    remembered_.assign(x, x + n);
+    remembered_.insert(remembered_.end(), f_base_.begin(), f_base_.end());
+  } else {
+    remembered_.erase(remembered_.begin(), remembered_.begin() + static_cast<std::ptrdiff_t>(start));
+    remembered_.resize(2 * n);
+  }
   SUNMatZero(band);
-  std::vector<double> moved(x, x + size());
+  std::copy(x, x + size(), moved_.begin());
   for (std::size_t j = 0; j < stages_; ++j) {
     const std::size_t first_row_block = j == 0 ? 0 : j - 1;
     const std::size_t last_row_block = std::min(j + 1, stages_ - 1);
@@ -252,9 +272,9 @@ void ColumnEquations::jacobian(const double* x, SUNMatrix band) {
       const std::size_t column = j * block_ + a;
       const bool is_temperature = a == temperature_slot();
       const double step = log_step * std::max(std::abs(is_temperature ? x[column] + temperature_floor_ : x[column] + log_flow_limit_), 1.0);
-      moved[column] = x[column] + step;
-      const double actual_step = moved[column] - x[column];  // the step as represented
-      read_stage(moved.data(), j);
+      moved_[column] = x[column] + step;
+      const double actual_step = moved_[column] - x[column];  // the step as represented
+      read_stage(moved_.data(), j);
       // Only a liquid flow or the temperature changes the stage's equilibrium.
       const bool changes_equilibrium = a < liquid_unknowns_.size() || is_temperature;
       if (changes_equilibrium) evaluate_stage(j, trial_);
@@ -268,7 +288,7 @@ void ColumnEquations::jacobian(const double* x, SUNMatrix band) {
           SM_ELEMENT_B(band, row, column) = (f_trial_[row] - f_base_[row]) / actual_step;
         }
       }
-      moved[column] = x[column];
+      moved_[column] = x[column];
       read_stage(x, j);
     }
   }

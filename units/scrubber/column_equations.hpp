@@ -86,8 +86,10 @@ class ColumnEquations {
   StageEquilibrium feed_liquid_;  // the liquor feed at its own temperature
   StageEquilibrium trial_;
   std::vector<double> f_base_, f_trial_;
-  // The points evaluated since the last Jacobian and their F, each point's unknowns then its F.
-  std::vector<double> evaluated_;
+  std::vector<double> x_evaluated_, moved_;  // the point of the last residual; the Jacobian's moved unknowns
+  bool evaluated_ = false;                   // f_base_ and equilibrium_ hold F(x_evaluated_)
+  // The points asked for since the last Jacobian and the F each got, each point's unknowns then its F.
+  std::vector<double> remembered_;
 };
 
 }  // namespace protonflow::scrubber::detail

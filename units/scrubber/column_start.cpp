@@ -44,6 +44,7 @@ void solve_tridiagonal(const std::vector<double>& a, std::vector<double>& b, con
 }  // namespace
 
 ColumnProfile ColumnEquations::start_profile(int sweeps) {
+  evaluated_ = false;  // the sweeps overwrite the working profile and the stages' equilibria
   const std::size_t n = stages_;
   const double floor = flow_floor * flow_scale_;
   const double t_low = model_.minimum_temperature() + 0.5;
@@ -89,6 +90,16 @@ ColumnProfile ColumnEquations::start_profile(int sweeps) {
           model_.flash(j, t_[j], pressure_ * (1.0 - inert / all), totals, liquid, gas);
         } catch (const std::exception&) {
           continue;  // this stage keeps its previous flows; Newton starts from them
+        }
+        // The flash is a stage of efficiency 1; a stage of efficiency E passes on (1 − E) of what
+        // came in as it came and E of the flash's gas (Murphree, on flows rather than mole
+        // fractions: the start's approximation), the liquid keeping the rest.
+        for (const std::size_t k : gas_unknowns_) {
+          const std::size_t comp = model_.gas_component(k);
+          if (comp == StageModel::no_component) continue;
+          const double passed = (1.0 - efficiency_[k]) * gas_in[k] + efficiency_[k] * gas[k];
+          liquid[comp] += gas[k] - passed;
+          gas[k] = passed;
         }
         for (const std::size_t comp : liquid_unknowns_) l_[j * liquid_count_ + comp] = std::max(liquid[comp], floor);
         for (const std::size_t k : gas_unknowns_)

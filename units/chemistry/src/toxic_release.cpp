@@ -10,8 +10,8 @@ namespace protonflow::units {
 
 namespace {
 
-// Exposure limits in ppm by volume, NIOSH Pocket Guide to Chemical Hazards [niosh-pocket-guide], from
-// memory: the recommended exposure limit (Cl2: a 15-minute ceiling of 0.5 ppm; HCN: a short-term limit of
+// Exposure limits in ppm by volume, NIOSH Pocket Guide to Chemical Hazards [niosh-pocket-guide], read
+// in NIOSH's IDLH documentation (HCN's IDLH is the original value): the recommended exposure limit (Cl2: a 15-minute ceiling of 0.5 ppm; HCN: a short-term limit of
 // 4.7 ppm) and the level immediately dangerous to life or health. The REL is the threshold because it is
 // the published level a worker at the tank may not exceed; a closed headspace over the liquor comes to
 // the equilibrium partial pressure, an open tank dilutes it, so the warning errs on the safe side.

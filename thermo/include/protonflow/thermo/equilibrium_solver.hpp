@@ -50,9 +50,17 @@ struct Speciation {
 // One sentence per warning flag set in a speciation, for reports.
 std::vector<std::string> describe_warnings(const Speciation& speciation);
 
+// How Newton's equations are posed and solved (docs/equilibrium.md, "Reduced form").
+enum class NewtonForm {
+  full,           // every solute's ln m an unknown, one LU of the whole Jacobian
+  full_by_schur,  // the same Newton steps, solved by the Schur complement of the mass-action block
+  reduced,        // basis ln m, ln W and phases the unknowns; secondary solutes from mass action
+};
+
 struct SolverOptions {
   double tolerance = 1e-13;  // scaled residual (relative mass balance, relative charge balance)
   long max_iterations = 200;
+  NewtonForm form = NewtonForm::full;
 };
 
 class EquilibriumSolver {
