@@ -458,16 +458,19 @@ TEST_CASE("neutraliser: zinc and aluminium re-dissolve at high pH, fluoride prec
       zinc += std::pow(10.0, log_zn + log_beta[n] + static_cast<double>(n) * 9.5) / davies_gamma(charge[n]);
     CHECK(at_95 == Approx(zinc * 65.38e3).epsilon(0.05));
   }
-  SECTION("aluminium: least soluble near pH 6, aluminate above") {
-    const host::Slate slate{{"H2O", "H2SO4", "Al(OH)3", "NaOH"}, {"gibbsite"}};
+  SECTION("aluminium: fresh Al(OH)3 least soluble near pH 7, aluminate above") {
+    // The fresh solid's minimum lies near pH 6.8 with Brown & Ekberg's (2016) hydrolysis constants; below
+    // about pH 6.6 their Al13O4(OH)24^7+ holds the Al dissolved against Al(OH)3(am): log m(Al13) =
+    // 13 x 10.8 - 100.03 - 7 pH = 40.37 - 7 pH (thermo/data/metals.yaml), so 1 mmol/kg stays in solution at pH 6.
+    const host::Slate slate{{"H2O", "H2SO4", "Al(OH)3", "NaOH"}, {"gibbsite", "Al(OH)3(am)"}};
     const host::StreamState feed = solution(slate, 1.0, {{"H2SO4", 0.01}, {"Al(OH)3", 0.001}});  // 27 mg/L Al
     const host::StreamState reagent = solution(slate, 1.0, {{"NaOH", 2.0}});
     const double at_45 = dissolved_at(slate, feed, reagent, 4.5, dissolved_al);
-    const double at_6 = dissolved_at(slate, feed, reagent, 6.0, dissolved_al);
+    const double at_7 = dissolved_at(slate, feed, reagent, 7.0, dissolved_al);
     const double at_10 = dissolved_at(slate, feed, reagent, 10.0, dissolved_al);
-    INFO("Al mg/L at pH 4.5, 6, 10: " << at_45 << ", " << at_6 << ", " << at_10);
-    CHECK(at_6 < at_45);
-    CHECK(at_6 < at_10);
+    INFO("Al mg/L at pH 4.5, 7, 10: " << at_45 << ", " << at_7 << ", " << at_10);
+    CHECK(at_7 < at_45);
+    CHECK(at_7 < at_10);
   }
   SECTION("fluoride: lime leaves about fluorite's solubility") {
     const host::Slate slate{{"H2O", "HF", "Ca(OH)2"}, {"fluorite", "portlandite"}};
