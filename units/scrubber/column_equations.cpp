@@ -222,12 +222,47 @@ void ColumnEquations::residual(const double* x, double* f) {
   std::copy(x, x + size(), x_evaluated_.begin());
   std::copy(f, f + size(), f_base_.begin());
   evaluated_ = true;
+  // Each stage's speciation starts warm from that stage's last answer and meets its tolerance, not
+  // round-off: F at one point differs in the last digits (about 1e-12) from one evaluation to the
+  // next. KINSOL's line search assumes one F per point: where its step between a point that passed
+  // the sufficient-decrease test and one that failed it shrinks to nothing, it stops only when F at
+  // the passing point passes again, and near a point where Newton stalls a re-evaluation can fail
+  // it every time (docs/units.md, "Solution"). So a point asked again within one Newton step gets
+  // the F it got first; the stages are still evaluated, so the model's states, equilibrium_ and
+  // f_base_ are those of this evaluation at x.
+  const std::size_t n = size();
+  for (std::size_t at = 0; at < remembered_.size(); at += 2 * n) {
+    if (!std::equal(x, x + n, remembered_.begin() + static_cast<std::ptrdiff_t>(at))) continue;
+    std::copy_n(remembered_.begin() + static_cast<std::ptrdiff_t>(at + n), n, f);
+    return;
+  }
+  // A guard, not a limit met in practice: a line search takes some fifty points at most, twice
+  // that where it bisects back (docs/units.md, "Solution").
+  constexpr std::size_t most_points_per_step = 1000;
+  if (remembered_.size() >= most_points_per_step * 2 * n)
+    throw std::runtime_error("the line search of one Newton step asked for more than " + std::to_string(most_points_per_step) +
+                             " points of the column");
+  remembered_.insert(remembered_.end(), x, x + n);
+  remembered_.insert(remembered_.end(), f, f + n);
 }
 
 void ColumnEquations::jacobian(const double* x, SUNMatrix band) {
   // The residual at x, with every stage's equilibrium, is at hand when x is the point last
   // evaluated (KINSOL evaluates F where it then wants J): no stage is speciated twice.
   if (!evaluated_ || !std::equal(x, x + size(), x_evaluated_.begin())) residual(x, f_trial_.data());
+  // A new Newton step: F is remembered from here on, starting with the point it starts from and
+  // the F KINSOL has for it.
+  const std::size_t n = size();
+  std::size_t start = remembered_.size();
+  for (std::size_t at = 0; at < remembered_.size(); at += 2 * n)
+    if (std::equal(x, x + n, remembered_.begin() + static_cast<std::ptrdiff_t>(at))) start = at;
+  if (start == remembered_.size()) {
+    remembered_.assign(x, x + n);
+    remembered_.insert(remembered_.end(), f_base_.begin(), f_base_.end());
+  } else {
+    remembered_.erase(remembered_.begin(), remembered_.begin() + static_cast<std::ptrdiff_t>(start));
+    remembered_.resize(2 * n);
+  }
   SUNMatZero(band);
   std::copy(x, x + size(), moved_.begin());
   for (std::size_t j = 0; j < stages_; ++j) {

@@ -43,7 +43,9 @@ class ColumnEquations {
   void pack(const ColumnProfile& profile, double* x) const;
   ColumnProfile unpack(const double* x) const;
 
-  // F(x), every stage evaluated afresh. Throws what the stage model throws.
+  // F(x), every stage evaluated afresh (the stage model's states are then those at x). Throws what
+  // the stage model throws. Within one Newton step F is one function of x: a point asked again
+  // gets the F it got first (see residual() in column_equations.cpp).
   void residual(const double* x, double* f);
   // The banded Jacobian at x by difference quotients that follow the block structure: an
   // unknown of stage j moves only blocks j−1, j and j+1, and only stage j's equilibrium, so each
@@ -86,6 +88,8 @@ class ColumnEquations {
   std::vector<double> f_base_, f_trial_;
   std::vector<double> x_evaluated_, moved_;  // the point of the last residual; the Jacobian's moved unknowns
   bool evaluated_ = false;                   // f_base_ and equilibrium_ hold F(x_evaluated_)
+  // The points asked for since the last Jacobian and the F each got, each point's unknowns then its F.
+  std::vector<double> remembered_;
 };
 
 }  // namespace protonflow::scrubber::detail
