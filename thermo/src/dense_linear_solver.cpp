@@ -147,11 +147,16 @@ int solve(SUNLinearSolver solver, SUNMatrix, N_Vector x, N_Vector b, realtype) {
   return SUNLS_SUCCESS;
 }
 
-sunindextype last_flag(SUNLinearSolver solver) { return lu(solver).last_flag; }
+// The last factorisation's flag and the release of a solver's content, for either content type.
+template <class Content>
+sunindextype last_flag_of(SUNLinearSolver solver) {
+  return static_cast<const Content*>(solver->content)->last_flag;
+}
 
-int free_solver(SUNLinearSolver solver) {
+template <class Content>
+int free_with_content(SUNLinearSolver solver) {
   if (!solver) return SUNLS_SUCCESS;
-  delete static_cast<DenseLU*>(solver->content);
+  delete static_cast<Content*>(solver->content);
   solver->content = nullptr;
   SUNLinSolFreeEmpty(solver);
   return SUNLS_SUCCESS;
@@ -185,8 +190,8 @@ SUNLinearSolver make_dense_lu_solver(SUNContext context, sunindextype n) {
   solver->ops->initialize = initialize;
   solver->ops->setup = setup;
   solver->ops->solve = solve;
-  solver->ops->lastflag = last_flag;
-  solver->ops->free = free_solver;
+  solver->ops->lastflag = last_flag_of<DenseLU>;
+  solver->ops->free = free_with_content<DenseLU>;
   solver->content = new (std::nothrow) DenseLU(n);
   if (!solver->content) {
     SUNLinSolFreeEmpty(solver);
@@ -294,16 +299,6 @@ int schur_solve(SUNLinearSolver solver, SUNMatrix, N_Vector x, N_Vector b, realt
   return SUNLS_SUCCESS;
 }
 
-sunindextype schur_last_flag(SUNLinearSolver solver) { return schur_lu(solver).last_flag; }
-
-int schur_free(SUNLinearSolver solver) {
-  if (!solver) return SUNLS_SUCCESS;
-  delete static_cast<SchurLU*>(solver->content);
-  solver->content = nullptr;
-  SUNLinSolFreeEmpty(solver);
-  return SUNLS_SUCCESS;
-}
-
 }  // namespace
 
 SUNLinearSolver make_schur_lu_solver(SUNContext context, sunindextype n, std::size_t begin, std::size_t end) {
@@ -314,8 +309,8 @@ SUNLinearSolver make_schur_lu_solver(SUNContext context, sunindextype n, std::si
   solver->ops->initialize = initialize;
   solver->ops->setup = schur_setup;
   solver->ops->solve = schur_solve;
-  solver->ops->lastflag = schur_last_flag;
-  solver->ops->free = schur_free;
+  solver->ops->lastflag = last_flag_of<SchurLU>;
+  solver->ops->free = free_with_content<SchurLU>;
   solver->content = new (std::nothrow) SchurLU(n, begin, end);
   if (!solver->content) {
     SUNLinSolFreeEmpty(solver);
