@@ -122,6 +122,7 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
   u_scale = check_created(N_VNew_Serial(length, context), "N_VNew_Serial");
   f_scale = check_created(N_VNew_Serial(length, context), "N_VNew_Serial");
   f_work = check_created(N_VNew_Serial(length, context), "N_VNew_Serial");
+  newton_step = check_created(N_VNew_Serial(length, context), "N_VNew_Serial");
   N_VConst(1.0, u);
   N_VConst(1.0, u_scale);  // ln m and ln W are already well scaled
   const auto newton_length = static_cast<sunindextype>(reduced ? reduced_size : size);
@@ -160,6 +161,7 @@ EquilibriumSolver::Impl::~Impl() {
     N_VDestroy(reduced_u_scale);
     N_VDestroy(reduced_u);
   }
+  N_VDestroy(newton_step);
   N_VDestroy(f_work);
   N_VDestroy(f_scale);
   N_VDestroy(u_scale);
@@ -180,9 +182,7 @@ int EquilibriumSolver::Impl::run_newton() {
   // fall back to the line search from the same start if they do not converge.
   if (reuse_factorization) {
     constexpr long full_steps_of_a_warm_start = 8;
-    check_flag(KINSetNumMaxIters(kinsol, full_steps_of_a_warm_start), "KINSetNumMaxIters");
-    const int flag = run_kinsol(KIN_NONE);
-    check_flag(KINSetNumMaxIters(kinsol, options.max_iterations), "KINSetNumMaxIters");
+    const int flag = full_newton_steps(full_steps_of_a_warm_start);
     if (accepted(flag)) return flag;
     std::copy(newton_start.begin(), newton_start.end(), x);
   }
@@ -213,6 +213,86 @@ void EquilibriumSolver::Impl::set_residual_scales(const double* x, double* scale
   }
   scale[n] = 1.0 / water_total;
   scale_mass_action_rows(x, scale);
+}
+
+// Full Newton steps without KINSOL, for the warm start: the same steps as KINSOL's KIN_NONE strategy
+// (the same residual, Jacobian callback, linear solver, step cap, and its stopping tests in its
+// order), without its per-call set-up and per-step vector work, which in a warm solve of 3 steps on
+// 16 unknowns cost about a quarter of the call (docs/performance.md, "KINSOL's overhead").
+int EquilibriumSolver::Impl::full_newton_steps(long most_steps) {
+  // The reduced form steps in its own unknowns y (the full form's outside the mass-action block).
+  const bool reduced = options.form == NewtonForm::reduced;
+  double* x = N_VGetArrayPointer(u);
+  set_residual_scales(x, N_VGetArrayPointer(f_scale));
+  factored_this_call = false;
+  chord_steps = 0;
+  N_Vector unknowns = reduced ? reduced_u : u;
+  const std::size_t length = reduced ? reduced_size : size;
+  double* y = N_VGetArrayPointer(unknowns);
+  double* f = N_VGetArrayPointer(f_work);
+  double* step = N_VGetArrayPointer(newton_step);
+  const double* scale = N_VGetArrayPointer(reduced ? reduced_f_scale : f_scale);
+  if (reduced) {
+    std::copy(x, x + size, full_x.begin());
+    double* y_scale = N_VGetArrayPointer(reduced_f_scale);
+    for (std::size_t r = 0; r < reduced_size; ++r) {
+      y[r] = x[full_index(r)];
+      y_scale[r] = N_VGetArrayPointer(f_scale)[full_index(r)];
+    }
+  }
+  const double longest_step = 20.0 * std::sqrt(static_cast<double>(size));  // as KINSetMaxNewtonStep
+  const auto residual_at = [&]() {
+    if (reduced) return reduced_residual(y, f);
+    residual(y, f);
+    return true;
+  };
+  const auto scaled_norm = [&]() {  // KINSOL's scaled max-norm of F; a NaN or infinity passes no test
+    double norm = 0.0;
+    for (std::size_t i = 0; i < length; ++i) {
+      const double scaled = std::abs(f[i] * scale[i]);
+      if (!std::isfinite(scaled)) return std::numeric_limits<double>::infinity();
+      norm = std::max(norm, scaled);
+    }
+    return norm;
+  };
+  newton_iterations = 0;
+  if (!residual_at()) return end_full_newton_steps(KIN_SYSFUNC_FAIL);
+  // KINSOL's tests in its order: the start is the answer within 1/100 of the tolerance; after a step,
+  // the residual within the tolerance, else the step below the scaled step tolerance (1e-15 of every
+  // unknown plus one, KINSetScaledStepTol above), else the most steps.
+  if (scaled_norm() <= 0.01 * options.tolerance) return end_full_newton_steps(KIN_INITIAL_GUESS_OK);
+  while (true) {
+    // The Newton matrix: the LU held (a warm start's first step, a chord step) or a new one.
+    const int evaluated = reduced ? reduced_jacobian_callback(unknowns, f_work, jacobian_matrix, this, nullptr, nullptr)
+                                  : jacobian_callback(unknowns, f_work, jacobian_matrix, this, nullptr, nullptr);
+    if (evaluated != 0 || SUNLinSolSetup(linear_solver, jacobian_matrix) != SUNLS_SUCCESS)
+      return end_full_newton_steps(KIN_LSETUP_FAIL);
+    for (std::size_t i = 0; i < length; ++i) step[i] = -f[i];
+    if (SUNLinSolSolve(linear_solver, jacobian_matrix, newton_step, newton_step, 0.0) != SUNLS_SUCCESS)
+      return end_full_newton_steps(KIN_LSOLVE_FAIL);
+    double step_length = 0.0;
+    for (std::size_t i = 0; i < length; ++i) step_length += step[i] * step[i];
+    step_length = std::sqrt(step_length);
+    const double shorten = step_length > longest_step ? longest_step / step_length : 1.0;
+    for (std::size_t i = 0; i < length; ++i) y[i] += shorten * step[i];
+    ++newton_iterations;
+    if (!residual_at()) return end_full_newton_steps(KIN_SYSFUNC_FAIL);
+    if (scaled_norm() <= options.tolerance) return end_full_newton_steps(KIN_SUCCESS);
+    double relative_step = 0.0;
+    for (std::size_t i = 0; i < length; ++i)
+      relative_step = std::max(relative_step, shorten * std::abs(step[i]) / (std::abs(y[i]) + 1.0));
+    if (relative_step <= 1e-15) return end_full_newton_steps(KIN_STEP_LT_STPTOL);
+    if (newton_iterations >= most_steps) return end_full_newton_steps(KIN_MAXITER_REACHED);
+  }
+}
+
+int EquilibriumSolver::Impl::end_full_newton_steps(int flag) {
+  const bool reduced = options.form == NewtonForm::reduced;
+  double* x = N_VGetArrayPointer(u);
+  if (reduced) std::copy(full_x.begin(), full_x.end(), x);  // the last residual's full u, at y
+  reuse_factorization = false;  // only ever for the first step of a warm solve
+  if (flag < 0) factorization_current = false;
+  return flag;
 }
 
 int EquilibriumSolver::Impl::run_kinsol(int strategy) {

@@ -84,6 +84,8 @@ struct EquilibriumSolver::Impl {
   bool solve_current_set();
   bool replace_rival(std::size_t added);
   int run_kinsol(int strategy);
+  int full_newton_steps(long most_steps);
+  int end_full_newton_steps(int flag);
   void set_residual_scales(const double* u, double* scale);
   void scale_mass_action_rows(const double* u, double* scale) const;
   int run_newton();
@@ -167,8 +169,8 @@ struct EquilibriumSolver::Impl {
 
   SUNContext context = nullptr;
   void* kinsol = nullptr;
-  N_Vector u = nullptr, u_scale = nullptr, f_scale = nullptr, f_work = nullptr;
-  long newton_iterations = 0;  // Newton steps of the latest KINSOL call
+  N_Vector u = nullptr, u_scale = nullptr, f_scale = nullptr, f_work = nullptr, newton_step = nullptr;
+  long newton_iterations = 0;  // Newton steps of the latest KINSOL call or full_newton_steps
   N_Vector reduced_u = nullptr, reduced_u_scale = nullptr, reduced_f_scale = nullptr;  // reduced form only
   SUNMatrix jacobian_matrix = nullptr;
   SUNLinearSolver linear_solver = nullptr;
