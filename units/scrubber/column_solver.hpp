@@ -63,4 +63,9 @@ class ColumnConvergenceError : public std::runtime_error {
 ColumnProfile solve_column(StageModel& model, const ColumnSpecification& specification, const ColumnFeeds& feeds,
                            const ColumnProfile* previous = nullptr);
 
+// A start for a column of `stages` stages from the answer of the same column, at the same feeds,
+// with another stage count (column_resize.cpp): the solved profile aligned at the bottom, cut or
+// extended over its top. Pass it to solve_column as `previous`.
+ColumnProfile profile_for_stages(const ColumnProfile& solved, std::size_t stages);
+
 }  // namespace protonflow::scrubber
