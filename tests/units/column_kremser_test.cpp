@@ -154,3 +154,29 @@ TEST_CASE("scrubber column: a taller column's start goes on falling over the sol
   CHECK(taller.temperature[0] == 300.0);
   CHECK(taller.temperature[3] == 305.0);
 }
+
+TEST_CASE("scrubber column: chord steps on the kept Jacobian find the answer Newton finds", "[scrubber]") {
+  // With a memory of its last solve the column first takes chord steps from its previous answer on
+  // that solve's last Jacobian (docs/units.md, "Warm start"); near feeds and far ones, the answer
+  // must be the cold column's to the tolerance (far ones fall back to Newton).
+  using protonflow::scrubber::ColumnMemory;
+  LinearStageModel model(0.8);
+  ColumnSpecification specification;
+  specification.stages = 12;
+  specification.efficiency = {1.0, 0.7};
+  ColumnFeeds feeds;
+  feeds.liquid = {1.2, 0.0};
+  feeds.gas = {0.9, 0.1};
+  ColumnMemory memory;
+  auto previous = solve_column(model, specification, feeds, nullptr, &memory);
+  for (const double solute : {0.1001, 0.1003, 0.15, 0.02}) {
+    CAPTURE(solute);
+    feeds.gas[1] = solute;
+    const auto warm = solve_column(model, specification, feeds, &previous, &memory);
+    const auto cold = solve_column(model, specification, feeds);
+    CHECK(warm.residual_norm <= specification.tolerance);
+    for (std::size_t i = 0; i < cold.gas.size(); ++i) CHECK(warm.gas[i] == Approx(cold.gas[i]).epsilon(1e-9));
+    for (std::size_t i = 0; i < cold.liquid.size(); ++i) CHECK(warm.liquid[i] == Approx(cold.liquid[i]).epsilon(1e-9));
+    previous = warm;
+  }
+}

@@ -158,7 +158,7 @@ ColumnProfile Scrubber::solve_stages(std::size_t stages, const ColumnSpecificati
     std::optional<ColumnProfile> resized;
     if (previous == previous_profiles_.end() && nearby != nullptr) resized = profile_for_stages(*nearby, stages);
     const ColumnProfile* start = previous != previous_profiles_.end() ? &previous->second : resized ? &*resized : nullptr;
-    ColumnProfile profile = solve_column(*model_, specification, feeds, start);
+    ColumnProfile profile = solve_column(*model_, specification, feeds, start, &column_memories_[stages]);
     previous_profiles_[stages] = profile;
     return profile;
   } catch (const ColumnConvergenceError& error) {

@@ -179,6 +179,7 @@ class Scrubber {
   std::unique_ptr<ChemistryStageModel> model_;
   std::unique_ptr<Sump> sump_;      // with recirculation only
   std::map<std::size_t, ColumnProfile> previous_profiles_;  // the last answer at each stage count solved
+  std::map<std::size_t, ColumnMemory> column_memories_;     // and the last Jacobian's LU factors there
   std::vector<double> last_recirculation_;  // the last steady recirculated liquor (mol/kg per component) and its T (K)
 };
 
