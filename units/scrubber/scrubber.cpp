@@ -33,6 +33,8 @@ constexpr double normal_pressure = 101325.0;
 constexpr double sump_tolerance = 1e-10;
 constexpr long sump_passes = 200;
 constexpr double wegstein_lowest = -20.0;
+// A Wegstein step below this share of the component's last amounts is its cancellation to round-off.
+constexpr double wegstein_cancellation = 1e-12;
 // The most stages the search for an emission limit tries.
 constexpr std::size_t most_stages_for_limit = 100;
 // A liquor above this pH takes up CO2 as carbonate and wastes reagent on it (common practice: acid-
@@ -260,7 +262,11 @@ Scrubber::SumpAnswer Scrubber::solve_with_sump(const ColumnSpecification& specif
         if (dx == 0.0) continue;
         const double slope = (g[i] - g_last[i]) / dx;
         const double q = std::clamp(slope / (slope - 1.0), wegstein_lowest, 0.0);
-        const double step = q * x[i] + (1.0 - q) * g[i];
+        double step = q * x[i] + (1.0 - q) * g[i];
+        // A component that nothing brings in any more (the make-up's calcium when the make-up
+        // turns to plain water) goes as g = a x, whose fixed point is none: the step cancels to
+        // round-off of x, a trace tens of decades down that the engine cannot balance. It is none.
+        if (i < count && step < wegstein_cancellation * std::max(x[i], g[i])) step = 0.0;
         if (step >= 0.0 && std::isfinite(step)) next[i] = step;
       }
     }
