@@ -180,3 +180,23 @@ TEST_CASE("scrubber column: chord steps on the kept Jacobian find the answer New
     previous = warm;
   }
 }
+
+TEST_CASE("scrubber column: a previous answer without a component the feeds now bring still finds the cold column's answer",
+          "[scrubber]") {
+  // The first pass over a sump of fresh water, then the reagent: the previous answer lacks an
+  // unknown of this column, so the column sweeps from it with the new component placed as the
+  // cold start places it (docs/units.md, "Warm start"), and must find the cold column's answer.
+  LinearStageModel model(0.8);
+  ColumnSpecification specification;
+  specification.stages = 8;
+  specification.efficiency = {1.0, 0.7};
+  ColumnFeeds feeds;
+  feeds.liquid = {1.2, 0.0};
+  feeds.gas = {0.9, 0.0};  // no solute yet
+  const auto without = solve_column(model, specification, feeds);
+  feeds.gas[1] = 0.05;
+  const auto warm = solve_column(model, specification, feeds, &without);
+  const auto cold = solve_column(model, specification, feeds);
+  for (std::size_t i = 0; i < cold.gas.size(); ++i) CHECK(warm.gas[i] == Approx(cold.gas[i]).epsilon(1e-9));
+  for (std::size_t i = 0; i < cold.liquid.size(); ++i) CHECK(warm.liquid[i] == Approx(cold.liquid[i]).epsilon(1e-9));
+}

@@ -30,6 +30,7 @@ struct Attempt {
   double max_step;
 };
 constexpr Attempt attempts[] = {{6, 50.0}, {24, 15.0}, {8, 200.0}};
+constexpr int sweeps_from_previous = 2;
 
 // What the callbacks share with the driver: the equations, and the first failure of a stage
 // evaluation (a speciation that did not converge, a temperature out of the data's range).
@@ -278,6 +279,16 @@ ColumnProfile solve_column(StageModel& model, const ColumnSpecification& specifi
     }
     try {
       return solve_from(equations, specification, *previous, attempts[0].max_step, objects);
+    } catch (const ColumnConvergenceError&) {
+    }
+  }
+  // A previous answer whose unknowns differ from this column's (a component new to the feeds: the
+  // first reagent into a sump of fresh water) is still closer than the cold start's first profile:
+  // a few sweeps from it, where the new component finds its place.
+  if (previous != nullptr && previous->stages == specification.stages && !equations.can_start_from(*previous)) {
+    try {
+      return solve_from(equations, specification, equations.start_profile_from(*previous, sweeps_from_previous),
+                        attempts[0].max_step, objects);
     } catch (const ColumnConvergenceError&) {
     }
   }
