@@ -254,21 +254,23 @@ Scrubber::SumpAnswer Scrubber::solve_with_sump(const ColumnSpecification& specif
       }
       return answer;
     }
-    // The next pass: a bounded Wegstein step per unknown once two passes give its slope.
+    // The next pass: a bounded Wegstein step per unknown, on the slope of its last two passes;
+    // after the first pass, for each component, on the slope plain passes have for what the column
+    // does not take up, R / (R + B) (a component's recirculated share: docs/units.md, "Sump").
     std::vector<double> next = g;
-    if (!x_last.empty()) {
-      for (std::size_t i = 0; i <= count; ++i) {
-        const double dx = x[i] - x_last[i];
-        if (dx == 0.0) continue;
-        const double slope = (g[i] - g_last[i]) / dx;
-        const double q = std::clamp(slope / (slope - 1.0), wegstein_lowest, 0.0);
-        double step = q * x[i] + (1.0 - q) * g[i];
-        // A component that nothing brings in any more (the make-up's calcium when the make-up
-        // turns to plain water) goes as g = a x, whose fixed point is none: the step cancels to
-        // round-off of x, a trace tens of decades down that the engine cannot balance. It is none.
-        if (i < count && step < wegstein_cancellation * std::max(x[i], g[i])) step = 0.0;
-        if (step >= 0.0 && std::isfinite(step)) next[i] = step;
-      }
+    for (std::size_t i = 0; i <= count; ++i) {
+      const bool first = x_last.empty();
+      if (first && i == count) continue;  // the temperature: no slope known
+      const double dx = first ? 1.0 : x[i] - x_last[i];
+      if (dx == 0.0) continue;
+      const double slope = first ? recirculation_ / outflow : (g[i] - g_last[i]) / dx;
+      const double q = std::clamp(slope / (slope - 1.0), wegstein_lowest, 0.0);
+      double step = q * x[i] + (1.0 - q) * g[i];
+      // A component that nothing brings in any more (the make-up's calcium when the make-up turns
+      // to plain water) goes as g = a x, whose fixed point is none: the step cancels to round-off
+      // of x, a trace tens of decades down that the engine cannot balance. It is none.
+      if (i < count && step < wegstein_cancellation * std::max(x[i], g[i])) step = 0.0;
+      if (step >= 0.0 && std::isfinite(step)) next[i] = step;
     }
     x_last = x;
     g_last = g;
