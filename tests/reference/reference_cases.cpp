@@ -564,6 +564,12 @@ std::vector<ReferenceCase> build_cases() {
                    "±0.05, the rounding of the tabulated value; the data's enthalpy is fitted to it with pKw's 25 °C enthalpy"});
   cases.push_back({metals, "ΔfH° of Cr^3+(aq), kJ/mol", "Ball & Nordstrom 1998, J. Chem. Eng. Data 43, 895 (from memory)",
                    -238.5, 0.05, [] { return bundled_database().find("Cr^3+")->formation_enthalpy->value / 1e3; }});
+  // Palmer et al. fit ΔrCp = 0 over 5–200 °C, so their constant at 60 °C is van 't Hoff with their mean ΔrH:
+  // 11.67 − 82.1 kJ/mol / (R ln 10) × (1/298.15 − 1/333.15) K⁻¹ = 11.67 − 1.511 = 10.16.
+  cases.push_back({metals, "log *Ks theophrastite β-Ni(OH)2 at 60 °C",
+                   "Palmer et al., J. Coord. Chem., OSTI 1055155 (read, abstract: ΔrH −82.1 kJ/mol, ΔrCp 0, 5–200 °C)",
+                   10.16, 0.01, [] { return -formation_log_k("theophrastite", 333.15); },
+                   "±0.01, the rounding; the published value is their model at 60 °C, log *Ks(25 °C) with their mean ΔrH"});
   // Calcium and ferric phosphate ion pairs (phosphate.yaml), each against its source's own reaction.
   const std::string pairs = "Calcium and ferric phosphate ion pairs, 25 and 37.5 °C";
   const std::string gregory = "Gregory, Moreno & Brown 1970, J. Res. NBS 74A, the abstract's equations (read)";
