@@ -6,6 +6,7 @@
 #include <fmt/format.h>
 #include <string>
 #include <tuple>
+#include <utility>
 
 #include "python_reference.hpp"
 #include "reference_cases.hpp"
@@ -30,6 +31,29 @@ TEST_CASE("φ of NaCl and KCl at their freezing points: the rows' published valu
         molality, depression));
     REQUIRE(values.size() == 1);
     const std::string quantity = fmt::format("φ {} {:g} mol/kg at its freezing point, −{:g} °C", salt, molality, depression);
+    bool found = false;
+    for (const auto& c : reference_cases())
+      if (c.quantity == quantity) {
+        found = true;
+        CHECK(c.published == Approx(values[0]).epsilon(2e-5));
+      }
+    CHECK(found);
+  }
+}
+
+TEST_CASE("φ of CaCl2 at its freezing points: the rows' published values are what python3-iapws gives") {
+  // (mol/kg, depression in K): CRC Handbook, concentrative properties, CaCl2 4–22 wt %; ν = 3
+  for (const auto& [molality, depression] : {std::pair{0.375, 1.82}, std::pair{0.575, 2.93}, std::pair{1.001, 5.86},
+                                             std::pair{1.467, 9.83}, std::pair{1.716, 12.28}, std::pair{2.253, 18.3}}) {
+    const auto values = run_python(fmt::format(
+        "import warnings\nwarnings.simplefilter('ignore')\n"
+        "from iapws._iapws import _Ice\nfrom iapws import IAPWS95\n"
+        "T = 273.15 - {1}\nw = IAPWS95(T=T, P=0.101325)\n"
+        "ln_aw = (_Ice(T, 0.101325)['g'] - (w.h - T * w.s)) / (0.46151805 * T)\n"
+        "print(-ln_aw / (3 * 0.018015268 * {0}))\n",
+        molality, depression));
+    REQUIRE(values.size() == 1);
+    const std::string quantity = fmt::format("φ CaCl2 {:g} mol/kg at its freezing point, −{:g} °C", molality, depression);
     bool found = false;
     for (const auto& c : reference_cases())
       if (c.quantity == quantity) {
