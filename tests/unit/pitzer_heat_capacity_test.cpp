@@ -83,4 +83,44 @@ TEST_CASE("NaCl carries its second temperature derivatives into the relative hea
   CHECK(with - without == Approx(23.6).margin(0.5));
 }
 
+// L_φ of a salt M_νM X_νX at 298.15 K by Pitzer's closed form (docs/energy.md), the temperature derivatives
+// of β⁰, β¹ and Cφ taken from the file's functions of T by central differences.
+double closed_form_l_phi(const PitzerBinary& b, int z_m, int z_x, int nu_m, int nu_x, double m) {
+  constexpr double t = 298.15, bb = 1.2, d = 0.01;
+  const double r = constants::gas_constant;
+  const double a_h = 4.0 * r * t * t * (a_phi(t + 0.05) - a_phi(t - 0.05)) / 0.1;
+  const auto slope = [](const PitzerCoefficient& c) { return (c.at(t + d) - c.at(t - d)) / (2.0 * d); };
+  const double ionic_strength = 0.5 * m * (nu_m * z_m * z_m + nu_x * z_x * z_x);
+  const double x = b.alpha1 * std::sqrt(ionic_strength);
+  const double g = 2.0 * (1.0 - (1.0 + x) * std::exp(-x)) / (x * x);
+  const double b_l = slope(b.beta0) + slope(b.beta1) * g;
+  const double c_l = slope(b.c_phi) / (2.0 * std::sqrt(static_cast<double>(z_m * -z_x)));
+  return (nu_m + nu_x) * z_m * -z_x * a_h / (2.0 * bb) * std::log1p(bb * std::sqrt(ionic_strength)) -
+         2.0 * nu_m * nu_x * r * t * t * (m * b_l + m * m * nu_m * z_m * c_l);
+}
+
+TEST_CASE("2:1 and 1:2 salts: the engine's L_φ from Møller's functions is Pitzer's closed form") {
+  struct Salt {
+    const char* cation;
+    const char* anion;
+    int z_m, z_x, nu_m, nu_x;
+  };
+  for (const Salt& salt : {Salt{"Ca^2+", "Cl^-", 2, -1, 1, 2}, Salt{"Mg^2+", "Cl^-", 2, -1, 1, 2},
+                           Salt{"Na^+", "SO4^2-", 1, -2, 2, 1}, Salt{"K^+", "SO4^2-", 1, -2, 2, 1}}) {
+    const PitzerBinary& b = binary(salt.cation, salt.anion);
+    REQUIRE(b.beta0.has_function);
+    SoluteProperties p;
+    p.charge = {salt.z_m, salt.z_x};
+    p.ion_size_angstrom = {6, 4};
+    p.name = {salt.cation, salt.anion};
+    const PitzerModel model(p, bundled_pitzer_parameters());
+    for (const double m : {0.1, 1.0, 2.0}) {
+      INFO(salt.cation << salt.anion << " at " << m << " mol/kg");
+      const std::vector<double> molality{salt.nu_m * m, salt.nu_x * m};
+      const double engine = model.relative_enthalpy(298.15, constants::standard_atmosphere, molality) / m;
+      CHECK(engine == Approx(closed_form_l_phi(b, salt.z_m, salt.z_x, salt.nu_m, salt.nu_x, m)).epsilon(1e-4));
+    }
+  }
+}
+
 }  // namespace
