@@ -340,8 +340,13 @@ TEST_CASE("the Pitzer parameter file: bundled set read, bad entries refused with
           4, 29, "a list of eight numbers");
   refused("function-near-a-pole",
           "binary:\n  - species: [Na^+, SO4^2-]\n    beta0: {value: 0.02, source: x}\n"
-          "    beta0_function: {terms: [1, 0, 0, 0, 0, 0, 0, 0], source: x}\n",
+          "    beta0_function: {terms: [1, 0, 0, 0, 0, 0, 0, 0.7], source: x}\n",
           2, 5, "the poles of Møller's eq. 13");
+  refused("function-below-its-263-K-pole",
+          "binary:\n  - species: [Na^+, SO4^2-]\n    minimum_temperature: {value: 250, source: x}\n"
+          "    maximum_temperature: {value: 523.15, source: x}\n    beta0: {value: 0.02, source: x}\n"
+          "    beta0_function: {terms: [1, 0, 0, 0, -0.5, 0, 0, 0], source: x}\n",
+          2, 5, "above 263 K");
   refused("constant-without-reaction", "equilibrium_constants:\n  - species: HSO4^-\n    five_term_log10_K: {constant: 2, source: x}\n",
           2, 5, "needs 'reaction'");
   refused("constant-without-source",

@@ -176,12 +176,17 @@ class ParameterFileReader {
     if (node["maximum_temperature"]) b.maximum_temperature = sourced(node["maximum_temperature"]);
     if (!(b.minimum_temperature < b.maximum_temperature))
       fail(node, "the pair's minimum_temperature must lie below its maximum_temperature");
-    // F(T) has poles at 227, 263 and 680 K: a pair with one keeps its range inside them.
-    for (const PitzerCoefficient* c : {&b.beta0, &b.beta1, &b.beta2, &b.c_phi})
-      if (c->has_function && !(b.minimum_temperature > 263.0 && b.maximum_temperature < 680.0))
-        fail(node, fmt::format("the pair {}–{} has a function of temperature: give minimum_temperature above 263 K and "
-                               "maximum_temperature below 680 K (the poles of Møller's eq. 13)",
-                               names[0], names[1]));
+    // F(T) has poles at 263 K (a5), 680 K (a7) and 227 K (a8): a pair whose functions use one keeps its range
+    // on the near side of it.
+    for (const PitzerCoefficient* c : {&b.beta0, &b.beta1, &b.beta2, &b.c_phi}) {
+      if (!c->has_function) continue;
+      const auto& a = c->function_terms;
+      const double lowest_pole = a[4] != 0.0 ? 263.0 : a[7] != 0.0 ? 227.0 : 0.0;
+      if (!(b.minimum_temperature > lowest_pole) || (a[6] != 0.0 && !(b.maximum_temperature < 680.0)))
+        fail(node, fmt::format("the pair {}–{} has a function of temperature: give minimum_temperature above {:g} K and "
+                               "maximum_temperature below 680 K (the poles of Møller's eq. 13 that its terms use)",
+                               names[0], names[1], lowest_pole));
+    }
     // α by charge type (Pitzer 1991, ch. 3): α₁ = 2 with no β², except 2:2 salts, α₁ = 1.4 and
     // α₂ = 12; an entry may set its own.
     const bool two_two = charge_magnitude(names[0]) >= 2 && charge_magnitude(names[1]) >= 2;
