@@ -872,8 +872,9 @@ TEST_CASE("acid_mixer: a binary inlet above its own bubble point is warned of, n
   const host::Slate hydrochloric{{"H2O", "HCl"}, {}};
   constexpr double molar_mass_hcl = 0.03646;  // kg/mol, python3-periodictable (36.46 g/mol)
   auto unit = create_mixer({}, hydrochloric);
-  // 37 % HCl boils near 52 °C at 1 atm (36 % at 61 °C, 38 % at 48 °C: International Critical Tables
-  // in the Wikipedia table, REFERENCE-VALUES.md): at 60 °C it is no liquid at 1 atm.
+  // 37 % HCl boils below 60 °C at 1 atm: the handbook's boiling points put 36 % at 61 °C and 38 % at
+  // 48 °C (wikipedia-hydrochloric-acid), Perry's partial pressures 56.5 and 44.7 °C
+  // (perry-hcl-partial-pressures; docs/concentrated-acids.md): at 60 °C it is no liquid at 1 atm.
   const double bubble = thermo::bubble_temperature(thermo::ConcentratedBinary::hydrochloric_acid, 0.37, atmosphere);
   REQUIRE(bubble < 333.15);
   const Mix hot = run(unit, {liquor(hydrochloric, "HCl", molar_mass_hcl, 9.0, 0.0, 298.15),

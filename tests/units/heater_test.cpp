@@ -271,6 +271,23 @@ TEST_CASE("heater: hot caustic is a hot corrosive liquor, hot water is not") {
   CHECK(run(water, water_feed(1.0, 298.15)).solution.warnings.empty());
 }
 
+TEST_CASE("heater: zincate liquor heated to 60 °C says which constants stay at their 25 °C values") {
+  // Zn(OH)3^- and Zn(OH)4^2- carry no reaction enthalpy in the data (none could be read:
+  // docs/species-data.md), and hold the zinc of a caustic liquor: hot, the product must say so.
+  const host::Slate slate{{"H2O", "ZnCl2", "NaOH"}, {}};
+  host::StreamState feed = stream(slate, 298.15, atmosphere);
+  flow(feed, slate, PFU_AQUEOUS_ROW, "H2O") = mol_per_kg_water;
+  flow(feed, slate, PFU_AQUEOUS_ROW, "ZnCl2") = 1e-3;
+  flow(feed, slate, PFU_AQUEOUS_ROW, "NaOH") = 0.1;
+  auto hot = create_heater({{"outlet_temperature", 333.15}}, slate);
+  const Run r = run(hot, feed);
+  CHECK(warned(r.solution, "held at their 25 °C values"));
+  CHECK(warned(r.solution, "Zn(OH)4^2-"));
+  // Within 5 K of 25 °C the held constants are no larger an error than the rest: no warning.
+  auto mild = create_heater({{"outlet_temperature", 300.15}}, slate);
+  CHECK_FALSE(warned(run(mild, feed).solution, "held at their 25 °C values"));
+}
+
 TEST_CASE("heater: gypsum that precipitates goes to the gypsum row, written on the slate's components") {
   const host::Slate slate{{"H2O", "H2SO4", "Ca(OH)2"}, {"gypsum"}};
   host::StreamState feed = stream(slate, 298.15, atmosphere);

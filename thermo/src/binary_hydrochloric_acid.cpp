@@ -15,7 +15,9 @@ constexpr double formation_enthalpy = -92307.0;  // ΔfH° HCl(g), J/mol: nbs-19
 constexpr double heat_capacity_gas = 29.12;      // Cp° HCl(g), J/(mol K): nbs-1982 (from memory)
 // HCl(g) → H^+ + Cl^- at infinite dilution, J/mol: nbs-1982, −167.159 + 92.307 (REFERENCE-VALUES.md).
 constexpr double solution_enthalpy_at_infinite_dilution = -74852.0;
-// γ±² m(H^+) m(Cl^-) / p(HCl) at 25 °C, mol² kg⁻² atm⁻¹: brimblecombe-clegg-1988 (from memory).
+// γ±² m(H^+) m(Cl^-) / p(HCl) at 25 °C, mol² kg⁻² atm⁻¹: brimblecombe-clegg-1988 (from memory), the
+// value clegg-brimblecombe-1988-hcl (read) finds their measured HCl pressures over concentrated
+// solutions to agree with.
 constexpr double henry_constant = 2.04e6;
 
 // Apparent relative molal enthalpy L_φ at 25 °C, kJ/mol, against n = mol H2O per mol HCl:
@@ -42,7 +44,8 @@ SmoothTable heat_of_solution_table() {
 
 // Mean activity coefficients at 25 °C: robinson-stokes-1959, appendix 8.10 (from memory; the 1 and
 // 3 mol/kg values are those of REFERENCE-VALUES.md). The osmotic coefficients they imply by
-// Gibbs–Duhem, 1.038 at 1 mol/kg and 1.347 at 3 mol/kg, match the tabulated 1.039 and 1.348.
+// Gibbs–Duhem, 1.038 at 1 mol/kg and 1.347 at 3 mol/kg, match the tabulated 1.039 and 1.348; from 1 to
+// 15 mol/kg they lie within 1.6 % of the emf study zhao-lei-1986 (read; validation.md).
 const UniUnivalentIsotherm& isotherm() {
   static const UniUnivalentIsotherm curve(17.0, {0.001, 0.01, 0.1, 0.2, 0.5, 1.0, 1.5,  2.0,  2.5,  3.0, 3.5,
                                                  4.0,   5.0,  6.0, 7.0, 8.0, 9.0, 10.0, 12.0, 14.0, 16.0},
