@@ -436,8 +436,8 @@ std::vector<ReferenceCase> build_cases() {
                      },
                      "NaCl and KCl at their freezing points: the 25 °C parameters carried down by Møller's (1988) NaCl "
                      "functions (NaCl −0.2 to +1.8 %; with Silvester & Pitzer's first derivatives and Carroll et al.'s "
-                     "second ones, held before, +0.5 to +4.3 %) and by Silvester & Pitzer's and Carroll et al.'s "
-                     "derivatives for KCl (0.3–1.4 %). The 25 °C aim of 1 % is held here at 5 %"});
+                     "second ones, held before, +0.5 to +4.3 %) and Greenberg & Møller's (1989) KCl functions (−0.1 to "
+                     "+0.9 %; +0.3 to +1.4 % with the derivatives held before). The 25 °C aim of 1 % is held here at 5 %"});
 
   // Solubility in brines with the Pitzer model, 25 °C.
   const std::string brines = "Solubility in brines with the Pitzer model, 25 °C";
