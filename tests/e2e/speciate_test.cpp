@@ -277,6 +277,16 @@ TEST_CASE("the Pitzer model names the ions it has no parameters for", "[speciate
   require_balances_close(report);
 }
 
+TEST_CASE("away from 25 °C the Pitzer model names the pairs whose parameters do not vary with temperature",
+          "[speciate][pitzer]") {
+  // Na–Cl, Na–SO4 have temperature functions (Silvester & Pitzer 1977, Møller 1988); Mg–SO4 has none.
+  const YAML::Node report = speciate_report(cases_directory / "hot-brine-pitzer.yaml");
+  REQUIRE(report["warnings"].size() == 1);
+  CHECK_THAT(report["warnings"][0].as<std::string>(),
+             Catch::Contains("Mg^2+–SO4^2-") && Catch::Contains("no temperature dependence") && Catch::Contains("60 °C"));
+  require_balances_close(report);
+}
+
 TEST_CASE("a solution within the model's range has an empty warning list", "[speciate][warnings]") {
   const YAML::Node report = speciate_report(cases_directory / "hcl-0.01-davies.yaml");
   REQUIRE(report["warnings"]);
