@@ -642,8 +642,8 @@ std::vector<ReferenceCase> build_cases() {
                        source, value, std::abs(value) * tolerance,
                        [n = n, sulfuric] { return binary_heat_of_solution(sulfuric, n); }});
     // L_φ = ΔH_sol(n) − ΔH_sol(∞), within each model's range (HCl to 38 wt %, n ≥ 3.3; HNO3 to 70 wt %,
-    // n ≥ 1.5); ΔH_sol(∞) of HCl(g) −74.852 and of HNO3(l) −30.90 kJ/mol (NBS 1982:
-    // the first from REFERENCE-VALUES.md, the second from memory).
+    // n ≥ 1.5); ΔH_sol(∞) of HCl(g) −74.852 and of HNO3(l) −30.90 kJ/mol (nbs-1982, from memory:
+    // the first derived, −167.159 + 92.307, the second recalled as such).
     for (const auto& [n, value] : {std::pair{3.700, 15.40}, std::pair{5.551, 10.24}, std::pair{9.251, 6.268},
                                    std::pair{18.50, 3.506}, std::pair{55.51, 1.695}})
       cases.push_back({binaries, fmt::format("HCl in {:g} H2O, L_φ at 25 °C, kJ/mol", n), parker, value, 0.03 * value,
