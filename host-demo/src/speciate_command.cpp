@@ -10,6 +10,7 @@
 #include "protonflow/thermo/database.hpp"
 #include "protonflow/thermo/equilibrium_solver.hpp"
 #include "protonflow/thermo/errors.hpp"
+#include "protonflow/thermo/held_constants.hpp"
 #include "protonflow/thermo/pitzer_coverage.hpp"
 #include "protonflow/thermo/pitzer_enthalpy.hpp"
 #include "protonflow/thermo/stream_enthalpy.hpp"
@@ -111,6 +112,7 @@ SpeciationReport make_report(const SolutionInput& input, const thermo::ChemicalS
   report.warnings = thermo::describe_warnings(speciation);
   const auto excess = thermo::make_excess_enthalpy_model(system);
   for (std::string& line : thermo::describe_pitzer_coverage(system, speciation)) report.warnings.push_back(std::move(line));
+  for (std::string& line : thermo::describe_held_constants(system, speciation)) report.warnings.push_back(std::move(line));
   try {
     report.enthalpy = thermo::state_enthalpy(system, speciation, excess.get());
   } catch (const thermo::ThermoError& error) {

@@ -192,6 +192,64 @@ int EquilibriumSolver::Impl::run_newton() {
   return run_kinsol(KIN_NONE);
 }
 
+// A warm start whose totals moved by more than a factor e from what the previous answer holds:
+// Newton in ln m meets a mass balance W Σ ν m = T from a start far above it one unit of ln m per
+// step (m e^{-1 + T/(W m)}), so a trace total that falls ten decades between two solves took some
+// twenty-five steps. Each such basis species, and every solute and gas built from it, is scaled by
+// T_b / held_b first, as the cold start's proportions would have it: exact for a trace, which moves
+// nothing else, and a start Newton corrects for a major total (docs/equilibrium.md, "Warm start").
+// A basis species a present solid or an open gas fixes keeps its start.
+void EquilibriumSolver::Impl::rescale_warm_start(double* x) {
+  constexpr double largest_unscaled_ratio = 2.718281828459045;  // e: one unit of ln m
+  const auto& solids = system->solids();
+  const auto& open = system->open_gases();
+  const auto& phase = system->phase_gases();
+  // What the start holds of each basis species, from the molalities last evaluated where they are
+  // those of the start (the previous answer, evaluated for its results).
+  if (!std::equal(x, x + size, evaluated_at.begin())) {
+    for (std::size_t i = 0; i < n; ++i) molality[i] = active[i] ? std::exp(std::clamp(x[i], detail::lowest_log, detail::highest_log)) : 0.0;
+    water_mass = std::exp(std::clamp(x[n], detail::lowest_log, detail::highest_log));
+    evaluation_valid = false;
+  }
+  double* held = basis_amount.data();
+  std::fill(held, held + nb, 0.0);
+  for (std::size_t i = 0; i < n; ++i)
+    for (const Term& t : terms[i]) held[t.basis] += t.coefficient * molality[i];
+  bool any = false;
+  for (std::size_t b = 1; b < nb; ++b) {
+    shift_by_basis[b] = 0.0;
+    double in_solution = held[b] * water_mass;
+    if (gas_phase_present)
+      for (std::size_t g = 0; g < phase.size(); ++g) in_solution += phase[g].stoichiometry[b] * phase_scale * x[phase_offset + g];
+    if (!active[b] || !(basis_total[b] > 0.0) || !(in_solution > 0.0)) continue;
+    const double ratio = basis_total[b] / in_solution;
+    if (ratio <= largest_unscaled_ratio && ratio * largest_unscaled_ratio >= 1.0) continue;
+    bool fixed = false;  // by an open gas or a present solid
+    for (const PhaseSpecies& gas : open) fixed = fixed || gas.stoichiometry[b] != 0.0;
+    for (std::size_t a = 0; a < allowed.size(); ++a)
+      fixed = fixed || (solid_present[a] && solids[allowed[a]].stoichiometry[b] != 0.0);
+    if (fixed) continue;
+    shift_by_basis[b] = std::log(ratio);
+    any = true;
+  }
+  if (!any) return;
+  shift_by_basis[0] = 0.0;  // H^+ follows the charge balance
+  for (std::size_t i = 0; i < n; ++i) {
+    if (!active[i]) continue;
+    double shift = 0.0;
+    for (const Term& t : terms[i]) shift += t.coefficient * shift_by_basis[t.basis];
+    x[i] = std::clamp(x[i] + shift, detail::lowest_log, detail::highest_log);
+  }
+  if (gas_phase_present) {
+    for (std::size_t g = 0; g < phase.size(); ++g) {
+      double shift = 0.0;
+      for (std::size_t b = 1; b < nb; ++b) shift += phase[g].stoichiometry[b] * shift_by_basis[b];
+      x[phase_offset + g] *= std::exp(std::clamp(shift, detail::lowest_log, detail::highest_log));
+    }
+  }
+  reuse_factorization = false;  // the kept LU is the Jacobian at the unscaled start
+}
+
 // Scale each residual by its natural size, so the tolerance is relative for every balance.
 void EquilibriumSolver::Impl::set_residual_scales(const double* x, double* scale) {
   evaluate_molalities(x);
@@ -439,6 +497,7 @@ void EquilibriumSolver::Impl::solve(double t, double p, std::span<const double> 
     std::copy(previous_u.begin(), previous_u.end(), x);
     solid_present = previous_solid_present;
     gas_phase_present = previous_gas_phase_present;
+    rescale_warm_start(x);
   } else {
     start_cold();
   }

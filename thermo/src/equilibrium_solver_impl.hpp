@@ -61,8 +61,15 @@ struct EquilibriumSolver::Impl {
   double phase_log_activity(const PhaseSpecies& p, double ln_k_phase) const;
   void phase_log_activity_gradient(const PhaseSpecies& p, double* gradient) const;
   // KINSOL's callbacks: the user data is this Impl.
+  // A NaN in F is a failure KINSOL can recover from (a shorter step): its line search, given a NaN
+  // norm, computes a NaN step length and never meets its own "too small" test, so it would never
+  // return (docs/equilibrium.md, "Solving with KINSOL"). An infinite F it backtracks from itself.
   static int residual_callback(N_Vector u, N_Vector f, void* user_data) {
-    static_cast<Impl*>(user_data)->residual(N_VGetArrayPointer(u), N_VGetArrayPointer(f));
+    auto* self = static_cast<Impl*>(user_data);
+    double* values = N_VGetArrayPointer(f);
+    self->residual(N_VGetArrayPointer(u), values);
+    for (std::size_t i = 0; i < self->size; ++i)
+      if (std::isnan(values[i])) return 1;
     return 0;
   }
   // KINSOL's messages go into the error we throw, never to stderr: a library does not print.
@@ -86,6 +93,7 @@ struct EquilibriumSolver::Impl {
   int run_kinsol(int strategy);
   int full_newton_steps(long most_steps);
   int end_full_newton_steps(int flag);
+  void rescale_warm_start(double* u);
   void set_residual_scales(const double* u, double* scale);
   void scale_mass_action_rows(const double* u, double* scale) const;
   int run_newton();

@@ -12,7 +12,10 @@ namespace protonflow::scrubber {
 namespace {
 
 // The floor share of a trace component in a stage's speciation (see evaluate()): far below the
-// engine's tolerance of 1e-13 on every balance, far above the 1e-22 where its Newton slows.
+// engine's tolerance of 1e-13 on every balance. The engine now scales a warm start to a trace total
+// that moved by decades, so a trace re-solves in one Newton step at any level; the floor is kept
+// because without it the cold 40-stage benchmark column costs 151.5 M instructions against 96.8 M
+// with it (20 stages: the same 48.4 M either way; docs/performance.md, "Warm starts scaled").
 constexpr double trace_share = 1e-16;
 
 }  // namespace
@@ -73,12 +76,11 @@ void ChemistryStageModel::flash(std::size_t stage, double temperature, double pr
 void ChemistryStageModel::evaluate(std::size_t stage, double temperature, double pressure, std::span<const double> liquid,
                                    StageEquilibrium& out) {
   thermo::Speciation& state = states_[stage];
-  // A trace component is speciated at a floor share of the liquid instead of its own amount: the
-  // engine's Newton takes some twenty iterations even from a warm start once a total falls below
-  // about 1e-22 of the solution (HCl near the top of a long caustic column, and the Newton iterates
-  // on the way there), against one to four above it. At the floor the trace moves nothing else in
-  // the solution (1e-16 of it, below the engine's own tolerance), so its species keep the
-  // proportions they would have at the true amount, and the factor below scales them back to it.
+  // A trace component is speciated at a floor share of the liquid instead of its own amount (HCl
+  // near the top of a long caustic column, and the Newton iterates on the way there): measured
+  // cheaper on long columns (trace_share above). At the floor the trace moves nothing else in the
+  // solution (1e-16 of it, below the engine's own tolerance), so its species keep the proportions
+  // they would have at the true amount, and the factor below scales them back to it.
   solvers_[stage].solve(temperature, pressure, with_traces_at_floor(liquid), state);
   const double ln_water_activity = std::log(state.water_activity);
   const std::size_t basis_count = system_->basis_count();

@@ -2,6 +2,7 @@
 
 #include <cstddef>
 
+#include <protonflow/thermo/held_constants.hpp>
 #include <protonflow/thermo/pitzer_coverage.hpp>
 
 #include <protonflow/units/message_text.hpp>
@@ -57,6 +58,7 @@ void warn_about_product(std::string_view unit_type, std::string_view fouling, co
   }
   if (!solids.empty()) warnings.add(prefix + "solids precipitate in the product: " + solids + ": " + std::string(fouling));
   for (const std::string& line : thermo::describe_pitzer_coverage(system, product)) warnings.add(prefix + "product: " + line);
+  for (const std::string& line : thermo::describe_held_constants(system, product)) warnings.add(prefix + "product: " + line);
 }
 
 void warn_about_model(std::string_view unit_type, std::string_view stream, const thermo::Speciation& state,
