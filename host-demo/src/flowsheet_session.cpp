@@ -31,7 +31,7 @@ int exit_code_for(pfu_status status) {
 FlowsheetSession::FlowsheetSession(const FlowsheetOptions& options) : units_(std::make_unique<UnitConverter>()) {
   // The YAML first: a broken file is reported before the species data and every module load.
   FlowsheetInput input = read_flowsheet_file(options.file, *units_);
-  database_.emplace(load_species_data(options.data_directory));
+  database_ = load_species_data(options.data_directory);
   catalog_ = UnitCatalog::scan(unit_search_path(options.unit_dirs));
   flowsheet_ = bind_flowsheet(std::move(input), catalog_, *database_, *units_);
   order_ = plan_flowsheet(flowsheet_);

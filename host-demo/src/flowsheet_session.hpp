@@ -6,7 +6,6 @@
 #include <functional>
 #include <iosfwd>
 #include <memory>
-#include <optional>
 #include <stdexcept>
 #include <string>
 #include <vector>
@@ -56,7 +55,7 @@ class FlowsheetSession {
   void check_unconnected_outlets(const FlowsheetSolution& solution) const;
 
   std::unique_ptr<UnitConverter> units_;  // first: everything below converts with it
-  std::optional<thermo::Database> database_;
+  std::shared_ptr<const thermo::Database> database_;
   UnitCatalog catalog_;
   Flowsheet flowsheet_;
   SolveOrder order_;

@@ -148,7 +148,8 @@ int speciate(const SpeciateOptions& options, std::ostream& out, std::ostream& er
   const UnitConverter units;
   const SolutionInput input = options.stream.empty() ? read_solution_file(options.file, units)
                                                      : read_stream_solution(options.file, options.stream, units);
-  const thermo::Database database = load_species_data(options.data_directory);
+  const std::shared_ptr<const thermo::Database> shared = load_species_data(options.data_directory);
+  const thermo::Database& database = *shared;
   check_components_known(database, input);
   check_phases_known(database, input);
   const ComponentSlate slate = to_component_slate(input);

@@ -2,15 +2,16 @@
 
 #include "input_error.hpp"
 #include "protonflow/thermo/errors.hpp"
+#include "protonflow/thermo/shared_database.hpp"
 
 namespace protonflow::host {
 
-thermo::Database load_species_data(const std::filesystem::path& directory) {
+std::shared_ptr<const thermo::Database> load_species_data(const std::filesystem::path& directory) {
   if (!std::filesystem::is_directory(directory)) {
     throw InputError(SourcePosition{directory.string(), 0, 0}, "the species data directory does not exist");
   }
   try {
-    return thermo::load_database(directory);
+    return thermo::shared_database(directory);
   } catch (const thermo::DataError& error) {
     throw InputError(SourcePosition{error.file(), error.line(), error.column()}, error.what());
   } catch (const thermo::ThermoError& error) {

@@ -3,10 +3,15 @@
 #include <cmath>
 #include <filesystem>
 #include <fstream>
+#include <memory>
+#include <string>
+#include <thread>
+#include <vector>
 
 #include "../support/temporary_directory.hpp"
 #include "protonflow/thermo/database.hpp"
 #include "protonflow/thermo/errors.hpp"
+#include "protonflow/thermo/shared_database.hpp"
 #include "protonflow/thermo/temperature_function.hpp"
 
 using namespace protonflow::thermo;
@@ -112,4 +117,78 @@ TEST_CASE("the five-term form is read by the names of its terms") {
   const double t = 298.15;
   const double expected = 2 + 0.001 * t - 300 / t + 0.5 * std::log10(t) + 1e4 / (t * t);
   CHECK(log_k(db.find("HOH")->log_k, t, 101325.0) == Approx(expected).epsilon(1e-12));
+}
+
+namespace {
+
+// One species of the test's own whose log10 K at 298.15 K is the given text (same length each time).
+std::string species_with_log_k(const std::string& log_k, const std::string& name = "HOH") {
+  return "species:\n  - name: " + name + "\n    formula: H2O\n    reaction: {H2O: 1}\n    log10_K_298K: {value: " +
+         log_k + ", source: x}\n    temperature_function: {van_t_hoff: {reaction_enthalpy_kJ_mol: {value: 0, source: x}}}\n";
+}
+
+double log_k_298(const Database& db) { return log_k(db.find("HOH")->log_k, 298.15, 101325.0); }
+
+}  // namespace
+
+TEST_CASE("the species data of a directory are parsed once per process while the files are unchanged") {
+  // A directory of its own for each run of the case (once per section), so that none starts cached.
+  static int run = 0;
+  const std::string name = "shared-" + std::to_string(run++);
+  const auto dir = directory_with(name, species_with_log_k("2.5"));
+  const auto own_file = dir / (name + ".yaml");
+  const long parses_before = shared_database_parses();
+  const std::shared_ptr<const Database> first = shared_database(dir);
+  CHECK(shared_database_parses() == parses_before + 1);
+  CHECK(log_k_298(*first) == Approx(2.5).epsilon(1e-14));
+
+  SECTION("the same files give the same database, and load_database a copy of it") {
+    CHECK(shared_database(dir).get() == first.get());
+    const Database copy = load_database(dir);
+    CHECK(shared_database_parses() == parses_before + 1);
+    REQUIRE(copy.species().size() == first->species().size());
+    for (std::size_t i = 0; i < copy.species().size(); ++i) {
+      CHECK(copy.species()[i].name == first->species()[i].name);
+      CHECK(copy.species()[i].file == first->species()[i].file);
+      CHECK(copy.species()[i].line == first->species()[i].line);
+    }
+  }
+  SECTION("a file changed in place to the same size is parsed again: contents are compared, not times") {
+    std::ofstream(own_file) << species_with_log_k("3.5");
+    const std::shared_ptr<const Database> changed = shared_database(dir);
+    CHECK(shared_database_parses() == parses_before + 2);
+    CHECK(changed.get() != first.get());
+    CHECK(log_k_298(*changed) == Approx(3.5).epsilon(1e-14));
+    // Whoever holds the first database still holds it as it was read.
+    CHECK(log_k_298(*first) == Approx(2.5).epsilon(1e-14));
+    CHECK(shared_database(dir).get() == changed.get());
+  }
+  SECTION("a file added or removed is parsed again") {
+    std::ofstream(dir / "extra.yaml") << species_with_log_k("4.5", "HOH2");
+    const std::shared_ptr<const Database> added = shared_database(dir);
+    CHECK(added->find("HOH2") != nullptr);
+    CHECK(first->find("HOH2") == nullptr);
+    std::filesystem::remove(dir / "extra.yaml");
+    const std::shared_ptr<const Database> removed = shared_database(dir);
+    CHECK(removed->find("HOH2") == nullptr);
+    CHECK(shared_database_parses() == parses_before + 3);
+  }
+  SECTION("a broken file is reported at every call, and the last good parse is kept") {
+    std::ofstream(own_file) << "species:\n  - name: HOH\n    colour: red\n";
+    CHECK_THROWS_WITH(shared_database(dir), Catch::Contains(name + ".yaml:3:5"));
+    CHECK_THROWS_WITH(shared_database(dir), Catch::Contains(name + ".yaml:3:5"));
+    std::ofstream(own_file) << species_with_log_k("2.5");
+    CHECK(shared_database(dir).get() == first.get());
+  }
+}
+
+TEST_CASE("threads asking for the same species data at once share one parse") {
+  const auto dir = directory_with("threads", species_with_log_k("1.5"));
+  const long parses_before = shared_database_parses();
+  std::vector<std::shared_ptr<const Database>> databases(4);
+  std::vector<std::thread> threads;
+  for (auto& database : databases) threads.emplace_back([&database, &dir] { database = shared_database(dir); });
+  for (std::thread& thread : threads) thread.join();
+  CHECK(shared_database_parses() == parses_before + 1);
+  for (const auto& database : databases) CHECK(database.get() == databases.front().get());
 }

@@ -7,7 +7,6 @@
 #include <cmath>
 #include <cstdlib>
 #include <fmt/format.h>
-#include <optional>
 #include <set>
 #include <unordered_map>
 
@@ -21,17 +20,14 @@ namespace {
 // Reads one data file; every complaint carries the position of the node it is about.
 class DataFileReader {
  public:
-  // Reads the file itself, or, where `text` is given, that text under the file's name.
-  explicit DataFileReader(std::string file, std::optional<std::string> text = std::nullopt)
-      : file_(std::move(file)), text_(std::move(text)) {}
+  // Reads the text of one file, reported under the file's name.
+  DataFileReader(std::string file, const std::string& text) : file_(std::move(file)), text_(text) {}
 
   std::vector<Species> read() {
     try {
       return read_document();
     } catch (const YAML::ParserException& e) {
       throw DataError(file_, e.mark.line + 1, e.mark.column + 1, e.msg);
-    } catch (const YAML::BadFile&) {
-      throw DataError(file_, 0, 0, "cannot open the file");
     } catch (const YAML::Exception& e) {
       // A node of the wrong kind where a name was expected (a list as a reaction's key, say).
       throw DataError(file_, e.mark.line + 1, e.mark.column + 1, e.msg);
@@ -40,7 +36,7 @@ class DataFileReader {
 
  private:
   std::vector<Species> read_document() {
-    const YAML::Node root = text_ ? YAML::Load(*text_) : YAML::LoadFile(file_);
+    const YAML::Node root = YAML::Load(text_);
     if (!root.IsMap() || !root["species"] || !root["species"].IsSequence())
       fail(root, "a data file holds one key, 'species', with a list of species");
     check_keys(root, {"species"});
@@ -227,7 +223,7 @@ class DataFileReader {
   }
 
   std::string file_;
-  std::optional<std::string> text_;
+  const std::string& text_;
 };
 
 // A reaction must conserve every element and the charge: that catches typing errors in the data.
@@ -295,23 +291,6 @@ Database checked_database(std::vector<Species> all) {
 }
 
 }  // namespace
-
-Database load_database(const std::filesystem::path& directory) {
-  if (!std::filesystem::is_directory(directory))
-    throw ThermoError(ErrorKind::bad_data, fmt::format("species data directory '{}' does not exist", directory.string()));
-  std::vector<std::filesystem::path> files;
-  for (const auto& entry : std::filesystem::directory_iterator(directory))
-    if (entry.path().extension() == ".yaml") files.push_back(entry.path());
-  std::sort(files.begin(), files.end());  // a stable species order, whatever the file system's
-  if (files.empty())
-    throw ThermoError(ErrorKind::bad_data, fmt::format("no *.yaml species data in '{}'", directory.string()));
-
-  std::vector<Species> all;
-  for (const auto& file : files) {
-    for (Species& s : DataFileReader(file.string()).read()) all.push_back(std::move(s));
-  }
-  return checked_database(std::move(all));
-}
 
 Database load_database(const std::vector<DataText>& texts) {
   std::vector<Species> all;

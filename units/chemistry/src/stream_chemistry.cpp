@@ -2,23 +2,10 @@
 
 #include <protonflow/thermo/database.hpp>
 #include <protonflow/thermo/errors.hpp>
+#include <protonflow/thermo/shared_database.hpp>
 #include <protonflow/thermo/species.hpp>
 
-
 namespace protonflow::units {
-
-namespace {
-
-// The species data, read once per module and shared by every instance: it is read-only after
-// loading, so instances still share nothing mutable, and a flowsheet of many heaters and mixers
-// reads the files once (about 13 ms each time, docs/performance.md). A failed read is retried by
-// the next create (a static whose initialisation throws is not initialised).
-const thermo::Database& module_database() {
-  static const thermo::Database database = thermo::load_database(thermo::default_data_directory());
-  return database;
-}
-
-}  // namespace
 
 std::unique_ptr<thermo::ChemicalSystem> make_stream_system(std::string_view unit_type, const unit::Slate& slate,
                                                            const std::string& activity_model,
@@ -30,9 +17,13 @@ std::unique_ptr<thermo::ChemicalSystem> make_stream_system(std::string_view unit
                      : activity_model == "pitzer" ? thermo::ActivityModelKind::pitzer
                                                   : thermo::ActivityModelKind::davies;
   options.precipitates = precipitate_form == "aged" ? thermo::PrecipitateAge::aged : thermo::PrecipitateAge::fresh;
-  const thermo::Database* shared = nullptr;
+  // The species data, parsed once per process and shared, read-only, by the host and every unit
+  // (shared_database.hpp): each create checks the files against that parse, which costs a read of
+  // them, not a parse. The system keeps nothing of the database, so a later change of the files
+  // leaves this unit's system as it was created.
+  std::shared_ptr<const thermo::Database> shared;
   try {
-    shared = &module_database();
+    shared = thermo::shared_database(thermo::default_data_directory());
   } catch (const thermo::ThermoError& error) {
     throw unit::UnitError(PFU_INTERNAL_ERROR, prefix + "cannot read the species data: " + error.what());
   }

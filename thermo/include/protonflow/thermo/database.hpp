@@ -24,7 +24,8 @@ class Database {
   std::vector<Species> species_;
 };
 
-// Reads every *.yaml file of a directory; throws DataError with file, line and column.
+// Reads every *.yaml file of a directory; throws DataError with file, line and column. A copy of
+// the process's one parse of those files while they are unchanged (shared_database.hpp).
 Database load_database(const std::filesystem::path& directory);
 
 // Species data held in memory: the text of one data file and the name to report it under.
