@@ -39,8 +39,8 @@ YAML::Node speciate_report(const fs::path& file) { return report_of(speciate(fil
 
 double number(const YAML::Node& node) { return node.as<double>(); }
 
-// Charge and mass balances close to round-off for every solve (REFERENCE-VALUES.md, "Published
-// methods with closed forms"); 1e-12 leaves room for the solver's 1e-13 scaled tolerance.
+// Charge and mass balances close to round-off for every solve (an exact check of the conservation
+// laws, common practice); 1e-12 leaves room for the solver's 1e-13 scaled tolerance.
 void require_balances_close(const YAML::Node& report) {
   const YAML::Node closure = report["balance_closure"];
   REQUIRE(closure);
@@ -84,7 +84,7 @@ void require_rejected(const std::string& name, int line, int column, const std::
 
 TEST_CASE("HCl 0.01 mol/kg with Davies has pH 2.04", "[speciate]") {
   const YAML::Node report = speciate_report(cases_directory / "hcl-0.01-davies.yaml");
-  // REFERENCE-VALUES.md, worked examples (common practice, no single source): HCl 0.01 mol/kg,
+  // Worked example (common practice), derived with Davies' γ (davies-1962): HCl 0.01 mol/kg,
   // activity-corrected, pH 2.04 ± 0.01.
   CHECK(number(report["pH"]) == Approx(2.04).margin(0.01));
   CHECK(number(report["temperature_K"]) == Approx(298.15).epsilon(0.0).margin(1e-9));
@@ -108,7 +108,7 @@ TEST_CASE("other units of temperature, pressure and amount give the same answer"
 
 TEST_CASE("acetic acid 0.1 mol/kg has pH 2.88", "[speciate]") {
   const YAML::Node report = speciate_report(cases_directory / "acetic-acid-0.1.yaml");
-  // REFERENCE-VALUES.md, worked examples (common practice, no single source): acetic acid
+  // Worked example (common practice), derived from pKa 4.756 (harned-ehlers-1933): acetic acid
   // 0.1 mol/kg, pH 2.88 ± 0.02.
   CHECK(number(report["pH"]) == Approx(2.88).margin(0.02));
   require_balances_close(report);
@@ -116,7 +116,7 @@ TEST_CASE("acetic acid 0.1 mol/kg has pH 2.88", "[speciate]") {
 
 TEST_CASE("H2SO4 0.05 mol/kg as an ideal solution has pH 1.24", "[speciate]") {
   const YAML::Node report = speciate_report(cases_directory / "h2so4-0.05-ideal.yaml");
-  // REFERENCE-VALUES.md, worked examples (common practice, no single source): H2SO4 0.05 mol/kg,
+  // Worked example (common practice), derived from pK(HSO4^-) 1.99 (crc-handbook, from memory): H2SO4 0.05 mol/kg,
   // ideal solution (γ = 1), pH 1.24 ± 0.01.
   CHECK(number(report["pH"]) == Approx(1.24).margin(0.01));
   for (const auto& solute : report["solutes"]) {
@@ -277,6 +277,16 @@ TEST_CASE("the Pitzer model names the ions it has no parameters for", "[speciate
   require_balances_close(report);
 }
 
+TEST_CASE("away from 25 °C the Pitzer model names the pairs whose parameters do not vary with temperature",
+          "[speciate][pitzer]") {
+  // Na–Cl, Na–SO4 have temperature functions (Silvester & Pitzer 1977, Møller 1988); Mg–SO4 has none.
+  const YAML::Node report = speciate_report(cases_directory / "hot-brine-pitzer.yaml");
+  REQUIRE(report["warnings"].size() == 1);
+  CHECK_THAT(report["warnings"][0].as<std::string>(),
+             Catch::Contains("Mg^2+–SO4^2-") && Catch::Contains("no temperature dependence") && Catch::Contains("60 °C"));
+  require_balances_close(report);
+}
+
 TEST_CASE("a solution within the model's range has an empty warning list", "[speciate][warnings]") {
   const YAML::Node report = speciate_report(cases_directory / "hcl-0.01-davies.yaml");
   REQUIRE(report["warnings"]);
@@ -333,7 +343,7 @@ TEST_CASE("spent pickle liquor: ferrous chloride and sulfate are entered and spe
 
 TEST_CASE("a solution open to a gas takes it up by Henry's law", "[speciate][gases]") {
   const YAML::Node report = speciate_report(cases_directory / "water-open-to-co2.yaml");
-  // REFERENCE-VALUES.md: KH(CO2) = 0.0340 mol kg⁻¹ atm⁻¹ at 25 °C (Plummer & Busenberg 1982), ±2 %.
+  // KH(CO2) = 0.0340 mol kg⁻¹ atm⁻¹ at 25 °C (Plummer & Busenberg 1982, plummer-busenberg-1982), ±2 %.
   CHECK(number(report["solutes"]["CO2(aq)"]["molality_mol_per_kg"]) == Approx(0.0340).epsilon(0.02));
   CHECK(number(report["open_gases"]["CO2(g)"]["uptake_mol"]) > 0.034);
   require_balances_close(report);

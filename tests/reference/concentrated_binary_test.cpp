@@ -158,7 +158,7 @@ TEST_CASE("concentrated binaries: an adiabatic outlet below its bubble point ret
 }
 
 TEST_CASE("H2SO4: 98 % acid diluted with water at 25 °C boils at 70 % and 50 %, not at 20 %") {
-  // REFERENCE-VALUES.md, "What it means for the acid mixer" (derived): both outlets pass their boiling
+  // Derived from the heats of solution (nbs-1982, nbs-circular-500, zeleznik-1991): both outlets pass their boiling
   // points, so the outlet is at its bubble point with the steam it makes; mass and energy balance close.
   const ConcentratedBinary b = ConcentratedBinary::sulfuric_acid;
   const double h_acid = binary_specific_enthalpy(b, 298.15, 0.98), h_water = binary_specific_enthalpy(b, 298.15, 0.0);

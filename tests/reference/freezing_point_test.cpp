@@ -6,6 +6,7 @@
 #include <fmt/format.h>
 #include <string>
 #include <tuple>
+#include <utility>
 
 #include "python_reference.hpp"
 #include "reference_cases.hpp"
@@ -28,6 +29,33 @@ TEST_CASE("φ of NaCl and KCl at their freezing points: the rows' published valu
         "ln_aw = (_Ice(T, 0.101325)['g'] - (w.h - T * w.s)) / (0.46151805 * T)\n"
         "print(-ln_aw / (2 * 0.018015268 * {0}))\n",
         molality, depression));
+    REQUIRE(values.size() == 1);
+    const std::string quantity = fmt::format("φ {} {:g} mol/kg at its freezing point, −{:g} °C", salt, molality, depression);
+    bool found = false;
+    for (const auto& c : reference_cases())
+      if (c.quantity == quantity) {
+        found = true;
+        CHECK(c.published == Approx(values[0]).epsilon(2e-5));
+      }
+    CHECK(found);
+  }
+}
+
+TEST_CASE("φ of CaCl2, MgCl2 and MgSO4 at their freezing points: the rows' published values are what python3-iapws gives") {
+  // (salt, ions per formula, mol/kg, depression in K): CRC Handbook, concentrative properties
+  for (const auto& [salt, ions, molality, depression] :
+       {std::tuple{"CaCl2", 3, 0.375, 1.82}, std::tuple{"CaCl2", 3, 0.575, 2.93}, std::tuple{"CaCl2", 3, 1.001, 5.86},
+        std::tuple{"CaCl2", 3, 1.467, 9.83}, std::tuple{"CaCl2", 3, 1.716, 12.28}, std::tuple{"CaCl2", 3, 2.253, 18.3},
+        std::tuple{"MgCl2", 3, 0.325, 1.65}, std::tuple{"MgCl2", 3, 0.438, 2.3}, std::tuple{"MgCl2", 3, 0.553, 3.01},
+        std::tuple{"MgSO4", 2, 0.437, 0.87}, std::tuple{"MgSO4", 2, 0.923, 1.85}, std::tuple{"MgSO4", 2, 1.352, 2.86},
+        std::tuple{"MgSO4", 2, 1.582, 3.67}}) {
+    const auto values = run_python(fmt::format(
+        "import warnings\nwarnings.simplefilter('ignore')\n"
+        "from iapws._iapws import _Ice\nfrom iapws import IAPWS95\n"
+        "T = 273.15 - {1}\nw = IAPWS95(T=T, P=0.101325)\n"
+        "ln_aw = (_Ice(T, 0.101325)['g'] - (w.h - T * w.s)) / (0.46151805 * T)\n"
+        "print(-ln_aw / ({2} * 0.018015268 * {0}))\n",
+        molality, depression, ions));
     REQUIRE(values.size() == 1);
     const std::string quantity = fmt::format("φ {} {:g} mol/kg at its freezing point, −{:g} °C", salt, molality, depression);
     bool found = false;

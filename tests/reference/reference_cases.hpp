@@ -10,7 +10,7 @@ namespace protonflow::reference {
 struct ReferenceCase {
   std::string group;      // table section, e.g. "Equilibrium constants, 25 °C"
   std::string quantity;   // what is compared, e.g. "pKa of acetic acid"
-  std::string source;     // exactly as ../shared/REFERENCE-VALUES.md names it
+  std::string source;     // the published source in words, with its status; docs/references.md cites it
   double published;
   double tolerance;       // absolute, in the quantity's own unit
   std::function<double()> model;  // what the engine computes today

@@ -123,7 +123,7 @@ double mean_activity_coefficient(const std::string& salt, const std::string& cat
 
 namespace protonflow::reference {
 
-double gypsum_solubility(double nacl_molality, thermo::ActivityModelKind model) {
+double gypsum_solubility(double nacl_molality, thermo::ActivityModelKind model, double temperature) {
   constexpr double gypsum_fed = 0.2;  // mol, several times what dissolves
   const std::vector<std::string> components{"H2O", "NaCl", "CaSO4.2H2O"};
   const std::vector<double> amounts{1.0 / thermo::constants::water_molar_mass, nacl_molality, gypsum_fed};
@@ -132,10 +132,24 @@ double gypsum_solubility(double nacl_molality, thermo::ActivityModelKind model) 
   options.allowed_solids = {"gypsum"};
   const thermo::ChemicalSystem system(bundled_database(), components, options);
   thermo::EquilibriumSolver solver(system);
-  const thermo::Speciation s = solver.solve(298.15, thermo::constants::standard_atmosphere, amounts);
+  const thermo::Speciation s = solver.solve(temperature, thermo::constants::standard_atmosphere, amounts);
   std::size_t gypsum = 0;
   while (system.solids()[gypsum].name != "gypsum") ++gypsum;
   return (gypsum_fed - s.solid_amount[gypsum]) / s.water_mass;
+}
+
+double salt_solubility(const std::string& component, const std::string& solid, double feed, double temperature) {
+  thermo::SystemOptions options;
+  options.activity = thermo::ActivityModelKind::pitzer;
+  options.allowed_solids = {solid};
+  const thermo::ChemicalSystem system(bundled_database(), {"H2O", component}, options);
+  thermo::EquilibriumSolver solver(system);
+  const thermo::Speciation s = solver.solve(temperature, thermo::constants::standard_atmosphere,
+                                            std::vector<double>{1.0 / thermo::constants::water_molar_mass, feed});
+  std::size_t index = 0;
+  while (system.solids()[index].name != solid) ++index;
+  if (s.solid_amount[index] <= 0.0) throw std::runtime_error(component + ": the feed dissolved entirely; feed more");
+  return (feed - s.solid_amount[index]) / s.water_mass;
 }
 
 }  // namespace protonflow::reference

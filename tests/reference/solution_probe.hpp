@@ -59,6 +59,11 @@ namespace protonflow::reference {
 
 // Solubility of gypsum (mol CaSO4 per kg of water) in NaCl of the given molality at 25 °C: excess
 // gypsum equilibrated with the solution, dissolved calcium over the water mass.
-double gypsum_solubility(double nacl_molality, thermo::ActivityModelKind model);
+double gypsum_solubility(double nacl_molality, thermo::ActivityModelKind model, double temperature = 298.15);
+
+// Solubility (mol of the salt per kg of the water left in solution) of one solid fed in excess as
+// `component` (e.g. "Na2SO4" with only "mirabilite" allowed to form) at the given temperature, with
+// the Pitzer model; `feed` mol per kg of water must exceed what dissolves.
+double salt_solubility(const std::string& component, const std::string& solid, double feed, double temperature);
 
 }  // namespace protonflow::reference

@@ -2,6 +2,7 @@
 
 #include <boost/math/quadrature/exp_sinh.hpp>
 
+#include <array>
 #include <cmath>
 #include <filesystem>
 #include <fstream>
@@ -192,6 +193,36 @@ TEST_CASE("Pitzer parameters are held at the edge of their fitted temperature ra
   CHECK(a.excess_gibbs_energy(305.0, 1e5, m) != Approx(b.excess_gibbs_energy(305.0, 1e5, m)).epsilon(1e-6));
 }
 
+TEST_CASE("Pitzer parameters as Møller's (1988) function of temperature, carried from the 25 °C value") {
+  // P(T) = P(298.15 K) + F(T) − F(298.15 K), F = a1 + a2 T + a3/T + a4 ln T + a5/(T − 263) + a6 T² + a7/(680 − T)
+  // + a8/(T − 227): F typed again here from Møller's eq. 13 with terms that exercise every one of its eight.
+  const std::array<double, 8> a{0.5, -1e-3, 20.0, 0.01, -0.3, 2e-6, 1.5, 0.7};
+  const auto f = [&a](double t) {
+    return a[0] + a[1] * t + a[2] / t + a[3] * std::log(t) + a[4] / (t - 263.0) + a[5] * t * t + a[6] / (680.0 - t) +
+           a[7] / (t - 227.0);
+  };
+  const auto directory = std::filesystem::temp_directory_path() / "protonflow-pitzer-function";
+  std::filesystem::create_directories(directory);
+  const auto file = directory / "function.yaml";
+  std::ofstream(file) << "binary:\n  - species: [Na^+, SO4^2-]\n    minimum_temperature: {value: 273.15, source: x}\n"
+                         "    maximum_temperature: {value: 523.15, source: x}\n    beta0: {value: 0.02, source: x}\n"
+                         "    beta0_function: {terms: [0.5, -1e-3, 20.0, 0.01, -0.3, 2e-6, 1.5, 0.7], source: x}\n"
+                         "    c0: {value: 0.001, source: x}\n"
+                         "    c0_function: {terms: [0.5, -1e-3, 20.0, 0.01, -0.3, 2e-6, 1.5, 0.7], source: x}\n";
+  const PitzerParameters p = load_pitzer_parameters(file);
+  std::filesystem::remove_all(directory);
+  REQUIRE(p.binary.size() == 1);
+  const PitzerCoefficient& beta0 = p.binary[0].beta0;
+  CHECK(beta0.at(298.15) == Approx(0.02).epsilon(1e-14));
+  for (const double t : {273.15, 320.0, 373.15, 473.15}) CHECK(beta0.at(t) == Approx(0.02 + f(t) - f(298.15)).epsilon(1e-12));
+  // c0 is Cφ / (2√2) for a 1:2 salt: the whole function scales with it (Pitzer 1991, eq. 3.63).
+  CHECK(p.binary[0].c_phi.at(350.0) == Approx(2.0 * std::sqrt(2.0) * (0.001 + f(350.0) - f(298.15))).epsilon(1e-12));
+  // The bundled Na2SO4 β⁰ moves as Møller's own function does: 0.0186933 at 298.15 K to 0.1057523 at 373.15 K,
+  // evaluated apart from the engine from the file's coefficients (a difference of 0.0870590).
+  for (const PitzerBinary& b : bundled_pitzer_parameters().binary)
+    if (b.cation == "Na^+" && b.anion == "SO4^2-") CHECK(b.beta0.at(373.15) - b.beta0.at(298.15) == Approx(0.0870590).epsilon(1e-6));
+}
+
 TEST_CASE("Pitzer model names the species it has no parameters for") {
   SoluteProperties p;
   p.charge = {1, -1, 1, 0};
@@ -263,9 +294,14 @@ TEST_CASE("the Pitzer parameter file: bundled set read, bad entries refused with
   CHECK(bundled.maximum_ionic_strength == 6.0);
   // The HSO4^- constant fitted with the sulfuric-acid parameters: K2 = 0.010500 at 25 °C, log10 K2 = −1.97882
   // (Clegg, Rard & Pitzer 1994, eq. 21), held as the formation constant of HSO4^- in the five-term form.
-  REQUIRE(bundled.equilibrium_constants.size() == 1);
+  // The sodium sulfates' solubility products fitted with the parameter set follow (docs/activity.md).
+  REQUIRE(bundled.equilibrium_constants.size() == 3);
   CHECK(bundled.equilibrium_constants[0].species == "HSO4^-");
   CHECK(log_k(bundled.equilibrium_constants[0].log_k, 298.15, 101325.0) == Approx(1.97882).margin(1e-4));
+  CHECK(bundled.equilibrium_constants[1].species == "mirabilite");
+  CHECK(log_k(bundled.equilibrium_constants[1].log_k, 298.15, 101325.0) == Approx(1.2130).margin(1e-5));
+  CHECK(bundled.equilibrium_constants[2].species == "thenardite");
+  CHECK(log_k(bundled.equilibrium_constants[2].log_k, 298.15, 101325.0) == Approx(0.2726).margin(1e-5));
   const auto directory = std::filesystem::temp_directory_path() / "protonflow-pitzer-parameters";
   std::filesystem::create_directories(directory);
   const auto refused = [&](const std::string& name, const std::string& text, int line, int column, const std::string& what) {
@@ -293,6 +329,24 @@ TEST_CASE("the Pitzer parameter file: bundled set read, bad entries refused with
           "binary:\n  - species: [H^+, HSO4^-]\n    beta0: {value: 0.2, source: x}\n    c_phi: {value: 0.01, source: x}\n"
           "    c0: {value: 0.005, source: x}\n",
           5, 9, "either c_phi or c0");
+  refused("function-and-derivative",
+          "binary:\n  - species: [Na^+, SO4^2-]\n    minimum_temperature: {value: 273.15, source: x}\n"
+          "    maximum_temperature: {value: 523.15, source: x}\n    beta0: {value: 0.02, source: x}\n"
+          "    beta0_dT: {value: 0.002, source: x}\n    beta0_function: {terms: [1, 0, 0, 0, 0, 0, 0, 0], source: x}\n",
+          7, 21, "either derivatives or a function");
+  refused("function-seven-terms",
+          "binary:\n  - species: [Na^+, SO4^2-]\n    beta0: {value: 0.02, source: x}\n"
+          "    beta0_function: {terms: [1, 0, 0, 0, 0, 0, 0], source: x}\n",
+          4, 29, "a list of eight numbers");
+  refused("function-near-a-pole",
+          "binary:\n  - species: [Na^+, SO4^2-]\n    beta0: {value: 0.02, source: x}\n"
+          "    beta0_function: {terms: [1, 0, 0, 0, 0, 0, 0, 0.7], source: x}\n",
+          2, 5, "the poles of Møller's eq. 13");
+  refused("function-below-its-263-K-pole",
+          "binary:\n  - species: [Na^+, SO4^2-]\n    minimum_temperature: {value: 250, source: x}\n"
+          "    maximum_temperature: {value: 523.15, source: x}\n    beta0: {value: 0.02, source: x}\n"
+          "    beta0_function: {terms: [1, 0, 0, 0, -0.5, 0, 0, 0], source: x}\n",
+          2, 5, "above 263 K");
   refused("constant-without-reaction", "equilibrium_constants:\n  - species: HSO4^-\n    five_term_log10_K: {constant: 2, source: x}\n",
           2, 5, "needs 'reaction'");
   refused("constant-without-source",

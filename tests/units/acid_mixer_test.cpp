@@ -270,14 +270,14 @@ TEST_CASE("acid_mixer: 0.1 mol/kg HCl meeting 0.1 mol/kg NaOH warms by the heat 
   const host::Slate slate{{"H2O", "HCl", "NaOH"}, {}};
   auto unit = create_mixer({}, slate);
   const Mix m = run(unit, {solution(slate, 298.15, {{"HCl", 0.1}}), solution(slate, 298.15, {{"NaOH", 0.1}})}, slate);
-  // H^+ + OH^- -> H2O(l): -55.84 kJ/mol (NBS tables, Wagman et al. 1982, REFERENCE-VALUES.md), so
+  // H^+ + OH^- -> H2O(l): -55.84 kJ/mol (NBS tables, Wagman et al. 1982, nbs-1982, derived, from memory), so
   // 0.1 mol/s releases 5.584 kW into 2 kg/s of dilute solution with c_p about 4.18 kJ/(kg K) (a
   // common value, from memory): ΔT ≈ 0.668 K, within 3 %.
   const double rise = 0.1 * 55.84e3 / (2.0 * 4.18e3);
   CHECK(m.product.temperature - 298.15 == Approx(rise).epsilon(0.03));
   // Exact equivalence: neutral, pH = pKw/2 at the product's temperature. pKw from IAPWS R11-07
-  // (Bandura & Lvov 2006) through python3-iapws' _Kw, REFERENCE-VALUES.md; about 6.99, so also "pH 7.00"
-  // of the worked example (strong acid + strong base at 25 °C, REFERENCE-VALUES.md) to 0.02, the
+  // (Bandura & Lvov 2006, bandura-lvov-2006) through python3-iapws' _Kw; about 6.99, so also "pH 7.00"
+  // of the worked example (strong acid + strong base at 25 °C, derived from the ion product) to 0.02, the
   // product being 0.67 K warmer.
   const std::vector<double> pkw = run_python(
       "from iapws import IAPWS95\n"
@@ -291,7 +291,7 @@ TEST_CASE("acid_mixer: 0.1 mol/kg HCl meeting 0.1 mol/kg NaOH warms by the heat 
   CHECK(m.solution.results[gas_flow] == 0.0);
   CHECK(m.solution.warnings.empty());
   // The heat released at 25 °C is the heat of neutralisation of the 0.1 mol/s, −55.84 kJ/mol (NBS
-  // tables, REFERENCE-VALUES.md), within 2 % (the rest: heats of dilution of the 0.1 mol/kg liquors).
+  // tables, nbs-1982, derived, from memory), within 2 % (the rest: heats of dilution of the 0.1 mol/kg liquors).
   CHECK(m.solution.results[heat_released] == Approx(0.1 * 55.84e3).epsilon(0.02));
   check_mass_balance(m, slate);
   check_energy_balance(m, slate);
@@ -303,7 +303,7 @@ TEST_CASE("acid_mixer: 0.1 mol/kg HCl meeting 0.1 mol/kg NaOH warms by the heat 
 TEST_CASE("acid_mixer: acid meeting carbonate evolves CO2 into the gas row, and the mixer warns") {
   // Soda ash, 0.2 mol/kg Na2CO3, written as 2 NaOH + CO2 (the same elements), meets 0.5 mol/kg HCl:
   // 0.2 mol/s of CO2 in 2 kg/s of water is some three times its solubility under 1 atm of CO2 at
-  // 25 °C (K_H 0.0340 mol/(kg atm), Plummer & Busenberg 1982 via REFERENCE-VALUES.md), so most of it
+  // 25 °C (K_H 0.0340 mol/(kg atm), Plummer & Busenberg 1982, plummer-busenberg-1982), so most of it
   // leaves as gas.
   const host::Slate slate{{"H2O", "HCl", "NaOH", "CO2"}, {}};
   const host::StreamState acid = solution(slate, 298.15, {{"HCl", 0.5}});
@@ -457,7 +457,7 @@ TEST_CASE("acid_mixer: what cannot be solved is an error with its reason, and no
 namespace {
 
 const host::Slate sulfuric{{"H2O", "H2SO4"}, {}};
-constexpr double molar_mass_h2so4 = 0.0980785;  // kg/mol, python3-periodictable (REFERENCE-VALUES.md)
+constexpr double molar_mass_h2so4 = 0.0980785;  // kg/mol, python3-periodictable (iupac-atomic-weights)
 
 // A liquor of the slate's water and one solute: kg/s of liquor at a mass fraction of that solute.
 host::StreamState liquor(const host::Slate& slate, const std::string& solute, double solute_molar_mass, double kg_per_s,
@@ -473,7 +473,7 @@ host::StreamState liquor(const host::Slate& slate, const std::string& solute, do
 TEST_CASE("acid_mixer: H2SO4 dissolved in water releases the integral heats of solution of the NBS tables") {
   // 1 mol/s of H2SO4(l) and n mol/s of water, both at 25 °C, held at 25 °C: the heat released is the
   // integral heat of solution, ΔfH(H2SO4 in n H2O) − ΔfH(H2SO4, l), NBS tables (Wagman et al. 1982,
-  // read, REFERENCE-VALUES.md): 27.8, 66.5, 72.8, 73.7 kJ/mol at n = 1, 10, 50, 100, within 3 %.
+  // read; nbs-1982): 27.8, 66.5, 72.8, 73.7 kJ/mol at n = 1, 10, 50, 100, within 3 %.
   const std::vector<std::pair<double, double>> nbs{{1.0, 27.8e3}, {10.0, 66.5e3}, {50.0, 72.8e3}, {100.0, 73.7e3}};
   auto unit = create_mixer({{"mode", std::string("held_temperature")}, {"outlet_temperature", 298.15}}, sulfuric);
   for (const auto& [n, heat] : nbs) {
@@ -504,7 +504,7 @@ TEST_CASE("acid_mixer: H2SO4 dissolved in water releases the integral heats of s
 
 TEST_CASE("acid_mixer: 98 % H2SO4 diluted adiabatically to about 50 % boils, and every safety warning is given") {
   // 1 kg/s of 98 wt % acid and 1 kg/s of water, both at 25 °C: about 550 kJ per kg of acid are
-  // released on the way to 50 % (REFERENCE-VALUES.md, derived), far more than heats 2 kg of liquor
+  // released on the way to 50 % (derived from heats of solution: zeleznik-1991, nbs-circular-500), far more than heats 2 kg of liquor
   // to its boiling point (about 124 °C at 50 %, Gmitro & Vermeulen 1964, from memory): the outlet
   // sits at its bubble point and flashes steam.
   auto unit = create_mixer({{"material_temperature_limit", 353.15}, {"path_points", 51.0}}, sulfuric);
@@ -522,7 +522,7 @@ TEST_CASE("acid_mixer: 98 % H2SO4 diluted adiabatically to about 50 % boils, and
   // The liquid left is a little stronger than the 49 % fed, having lost steam.
   CHECK(r[solute_mass_fraction] > 0.49);
   // Its boiling point by the binary model at the outlet pressure, against the handbook's 124 °C for
-  // 50 % (Gmitro & Vermeulen 1964 via REFERENCE-VALUES.md, from memory, ±5 K).
+  // 50 % (Gmitro & Vermeulen 1964, gmitro-vermeulen-1964, from memory, ±5 K).
   CHECK(m.product.temperature == Approx(397.15).epsilon(0.0).margin(8.0));
   // Energy: the vapour and liquid leave with what came in (adiabatic), by the same binary model.
   const auto binary = thermo::concentrated_binary_of("H2SO4");
@@ -568,7 +568,7 @@ TEST_CASE("acid_mixer: 37 % HCl let down a little gives off HCl fumes, and dilut
                          hydrochloric);
   check_mass_balance(strong, hydrochloric);
   CHECK(strong.solution.results[model] == 1.0);
-  CHECK(strong.solution.results[heat_released] > 0.0);  // HCl dilution is exothermic (Parker 1965, REFERENCE-VALUES.md)
+  CHECK(strong.solution.results[heat_released] > 0.0);  // HCl dilution is exothermic (Parker 1965, parker-1965, read)
   CHECK(strong.product.temperature > 298.15);
   CHECK(warned(strong.solution, "HCl fumes"));
   CHECK(warned(strong.solution, "add acid to water"));
@@ -578,7 +578,7 @@ TEST_CASE("acid_mixer: 37 % HCl let down a little gives off HCl fumes, and dilut
                                 liquor(hydrochloric, "HCl", molar_mass_hcl, 1.0, 0.0037, 298.15)},
                          hydrochloric);
   CHECK(dilute.solution.results[model] == 1.0);
-  // About 0.01 mol/kg HCl: pH 2.04 activity-corrected (REFERENCE-VALUES.md worked example), ±0.03
+  // About 0.01 mol/kg HCl: pH 2.04 activity-corrected (worked example, derived: −log10(γ± m); common practice), ±0.03
   // for the slightly different molality.
   CHECK(dilute.solution.results[outlet_ph] == Approx(2.04).epsilon(0.0).margin(0.03));
   CHECK_FALSE(warned(dilute.solution, "fumes"));
@@ -587,7 +587,7 @@ TEST_CASE("acid_mixer: 37 % HCl let down a little gives off HCl fumes, and dilut
 
 TEST_CASE("acid_mixer: dry HCl gas and dry NaOH pellets dissolve in water with their heats of solution") {
   // 0.1 mol/s of HCl(g) into 1 kg/s of water at 25 °C: HCl(g) -> H^+ + Cl^- releases 74.85 kJ/mol at
-  // infinite dilution (NBS tables, Wagman et al. 1982, REFERENCE-VALUES.md, derived), within 3 % at
+  // infinite dilution (NBS tables, Wagman et al. 1982, nbs-1982, derived, from memory), within 3 % at
   // 0.1 mol/kg.
   const host::Slate acid{{"H2O", "HCl"}, {}};
   host::StreamState gas = stream(acid, 298.15, atmosphere);
@@ -642,7 +642,7 @@ TEST_CASE("acid_mixer: diluting 6 mol/kg HCl to 1 mol/kg releases Parker's heat 
   auto unit = create_mixer({{"activity_model", std::string("pitzer")}}, slate);
   const Mix m = run(unit, inlets, slate);
   CHECK(m.solution.results[model] == 1.0);
-  // Parker 1965 (NSRDS-NBS 2, CRC Handbook, read; REFERENCE-VALUES.md): L_φ of HCl is 6.268 kJ/mol
+  // Parker 1965 (NSRDS-NBS 2, CRC Handbook, read; parker-1965): L_φ of HCl is 6.268 kJ/mol
   // at 6 mol/kg and 1.695 kJ/mol at 1 mol/kg, so 6 mol/s release 27.44 kW, within 3 % at 25 °C; the
   // product's heat capacity, 6 kg/s of water at 4.18 kJ/(kg K) (common value, from memory) and Cp° of
   // Cl- −136.4 J/(mol K) (NBS tables): 24.26 kW/K, a rise of 1.13 K, within 10 %.
@@ -695,7 +695,7 @@ std::vector<host::StreamState> let_down(const host::Slate& slate, const std::str
 TEST_CASE("acid_mixer: 37 % HCl let down to 10 and 1 mol/kg releases Parker's heats of dilution") {
   const host::Slate slate{{"H2O", "HCl"}, {}};
   auto held = create_mixer({{"mode", std::string("held_temperature")}, {"outlet_temperature", 298.15}}, slate);
-  // Parker 1965 (NSRDS-NBS 2, CRC Handbook, read; REFERENCE-VALUES.md), L_φ of HCl in kJ/mol:
+  // Parker 1965 (NSRDS-NBS 2, CRC Handbook, read; parker-1965), L_φ of HCl in kJ/mol:
   // 10.24 at n = 5.551 (10 mol/kg), 1.695 at n = 55.51 (1 mol/kg), 19.87 at n = 2.775, 15.40 at
   // n = 3.700 (CRC, read, as thermo/src/binary_hydrochloric_acid.cpp has it). The heat released
   // diluting from n1 to n2 is L_φ(n1) − L_φ(n2) per mol HCl.
@@ -755,7 +755,7 @@ TEST_CASE("acid_mixer: 50 % NaOH let down to 20 and 15 % releases the heats of t
   // correlation evaluated at 25 °C, thermo/src/binary_sodium_hydroxide.cpp), heat of solution less
   // its infinite-dilution value: 20.732 kJ/mol at 50 wt %, 0.982 at 20 %, 0.300 at 15 %. The
   // infinite-dilution end itself, NaOH(s) → Na⁺ + OH⁻ at −44.51 kJ/mol, is the NBS tables' (Wagman
-  // et al. 1982, REFERENCE-VALUES.md) and is checked with dry pellets above.
+  // et al. 1982, nbs-1982, derived, from memory) and is checked with dry pellets above.
   const host::Slate slate{{"H2O", "NaOH"}, {}};
   const double m_naoh = molar_mass(slate, "NaOH");
   const double m_water = molar_mass(slate, "H2O");
@@ -872,8 +872,9 @@ TEST_CASE("acid_mixer: a binary inlet above its own bubble point is warned of, n
   const host::Slate hydrochloric{{"H2O", "HCl"}, {}};
   constexpr double molar_mass_hcl = 0.03646;  // kg/mol, python3-periodictable (36.46 g/mol)
   auto unit = create_mixer({}, hydrochloric);
-  // 37 % HCl boils near 52 °C at 1 atm (36 % at 61 °C, 38 % at 48 °C: International Critical Tables
-  // in the Wikipedia table, REFERENCE-VALUES.md): at 60 °C it is no liquid at 1 atm.
+  // 37 % HCl boils below 60 °C at 1 atm: the handbook's boiling points put 36 % at 61 °C and 38 % at
+  // 48 °C (wikipedia-hydrochloric-acid), Perry's partial pressures 56.5 and 44.7 °C
+  // (perry-hcl-partial-pressures; docs/concentrated-acids.md): at 60 °C it is no liquid at 1 atm.
   const double bubble = thermo::bubble_temperature(thermo::ConcentratedBinary::hydrochloric_acid, 0.37, atmosphere);
   REQUIRE(bubble < 333.15);
   const Mix hot = run(unit, {liquor(hydrochloric, "HCl", molar_mass_hcl, 9.0, 0.0, 298.15),

@@ -106,3 +106,97 @@ TEST_CASE("scrubber column: 40 stages of a concentrated solute converge from the
   CHECK(absorbed + escaped == Approx(0.1).epsilon(1e-10));
   CHECK(profile.gas[0] == Approx(0.9).epsilon(1e-12));  // the carrier passes unchanged
 }
+
+TEST_CASE("scrubber column: a column started from another stage count's answer finds the cold column's answer", "[scrubber]") {
+  // The search for the stages an emission limit needs starts each stage count from the nearest
+  // column it has solved, cut or extended to its stages (profile_for_stages). From there Newton must
+  // find what the cold start finds, to the column's tolerance, shorter and taller alike.
+  using protonflow::scrubber::profile_for_stages;
+  LinearStageModel model(0.8);
+  ColumnSpecification specification;
+  specification.efficiency = {1.0, 0.7};
+  ColumnFeeds feeds;
+  feeds.liquid = {1.2, 0.0};
+  feeds.gas = {0.9, 0.1};
+  specification.stages = 10;
+  const auto solved = solve_column(model, specification, feeds);
+  for (const std::size_t stages : {1u, 3u, 9u, 11u, 17u, 30u}) {
+    CAPTURE(stages);
+    specification.stages = stages;
+    const auto start = profile_for_stages(solved, stages);
+    REQUIRE(start.stages == stages);
+    // Shorter: the solved column's lowest stages as they were.
+    if (stages <= 10) CHECK(start.gas[(stages - 1) * 2 + 1] == solved.gas[9 * 2 + 1]);
+    const auto warm = solve_column(model, specification, feeds, &start);
+    const auto cold = solve_column(model, specification, feeds);
+    for (std::size_t i = 0; i < cold.gas.size(); ++i) CHECK(warm.gas[i] == Approx(cold.gas[i]).epsilon(1e-9));
+    for (std::size_t i = 0; i < cold.liquid.size(); ++i) CHECK(warm.liquid[i] == Approx(cold.liquid[i]).epsilon(1e-9));
+  }
+}
+
+TEST_CASE("scrubber column: a taller column's start goes on falling over the solved column's top", "[scrubber]") {
+  using protonflow::scrubber::ColumnProfile;
+  using protonflow::scrubber::profile_for_stages;
+  // Two stages, liquid components and gases two each: the gas solute falls by e^-2 from the second
+  // stage to the top, so each stage added over the top takes another e^-2; the carrier, unchanged,
+  // stays; temperatures are the top's.
+  ColumnProfile solved;
+  solved.stages = 2;
+  solved.liquid = {1.0, 1e-6, 1.0, 1e-4};
+  solved.gas = {0.9, std::exp(-12.0), 0.9, std::exp(-10.0)};
+  solved.temperature = {300.0, 305.0};
+  const ColumnProfile taller = profile_for_stages(solved, 4);
+  CHECK(taller.gas[0 * 2 + 1] == Approx(std::exp(-16.0)).epsilon(1e-12));
+  CHECK(taller.gas[1 * 2 + 1] == Approx(std::exp(-14.0)).epsilon(1e-12));
+  CHECK(taller.gas[2 * 2 + 1] == solved.gas[1]);
+  CHECK(taller.gas[0] == 0.9);
+  CHECK(taller.liquid[0 * 2 + 1] == Approx(1e-10).epsilon(1e-12));
+  CHECK(taller.temperature[0] == 300.0);
+  CHECK(taller.temperature[3] == 305.0);
+}
+
+TEST_CASE("scrubber column: chord steps on the kept Jacobian find the answer Newton finds", "[scrubber]") {
+  // With a memory of its last solve the column first takes chord steps from its previous answer on
+  // that solve's last Jacobian (docs/units.md, "Warm start"); near feeds and far ones, the answer
+  // must be the cold column's to the tolerance (far ones fall back to Newton).
+  using protonflow::scrubber::ColumnMemory;
+  LinearStageModel model(0.8);
+  ColumnSpecification specification;
+  specification.stages = 12;
+  specification.efficiency = {1.0, 0.7};
+  ColumnFeeds feeds;
+  feeds.liquid = {1.2, 0.0};
+  feeds.gas = {0.9, 0.1};
+  ColumnMemory memory;
+  auto previous = solve_column(model, specification, feeds, nullptr, &memory);
+  for (const double solute : {0.1001, 0.1003, 0.15, 0.02}) {
+    CAPTURE(solute);
+    feeds.gas[1] = solute;
+    const auto warm = solve_column(model, specification, feeds, &previous, &memory);
+    const auto cold = solve_column(model, specification, feeds);
+    CHECK(warm.residual_norm <= specification.tolerance);
+    for (std::size_t i = 0; i < cold.gas.size(); ++i) CHECK(warm.gas[i] == Approx(cold.gas[i]).epsilon(1e-9));
+    for (std::size_t i = 0; i < cold.liquid.size(); ++i) CHECK(warm.liquid[i] == Approx(cold.liquid[i]).epsilon(1e-9));
+    previous = warm;
+  }
+}
+
+TEST_CASE("scrubber column: a previous answer without a component the feeds now bring still finds the cold column's answer",
+          "[scrubber]") {
+  // The first pass over a sump of fresh water, then the reagent: the previous answer lacks an
+  // unknown of this column, so the column sweeps from it with the new component placed as the
+  // cold start places it (docs/units.md, "Warm start"), and must find the cold column's answer.
+  LinearStageModel model(0.8);
+  ColumnSpecification specification;
+  specification.stages = 8;
+  specification.efficiency = {1.0, 0.7};
+  ColumnFeeds feeds;
+  feeds.liquid = {1.2, 0.0};
+  feeds.gas = {0.9, 0.0};  // no solute yet
+  const auto without = solve_column(model, specification, feeds);
+  feeds.gas[1] = 0.05;
+  const auto warm = solve_column(model, specification, feeds, &without);
+  const auto cold = solve_column(model, specification, feeds);
+  for (std::size_t i = 0; i < cold.gas.size(); ++i) CHECK(warm.gas[i] == Approx(cold.gas[i]).epsilon(1e-9));
+  for (std::size_t i = 0; i < cold.liquid.size(); ++i) CHECK(warm.liquid[i] == Approx(cold.liquid[i]).epsilon(1e-9));
+}

@@ -149,7 +149,7 @@ TEST_CASE("heater: heating 1 kg/s of water from 25 to 35 °C takes 41.8 kW, as I
   CHECK(r.solution.results[gas_flow] == 0.0);
   CHECK(r.solution.results[solid_flow] == 0.0);
   // Pure water is neutral: pH = pKw/2 at both ends (pKw 13.9945 at 25 °C, IAPWS R11-07 through
-  // python3-iapws, REFERENCE-VALUES.md), and lower when warmer.
+  // python3-iapws, bandura-lvov-2006), and lower when warmer.
   CHECK(r.solution.results[inlet_ph] == Approx(13.9945 / 2).margin(0.01));
   CHECK(r.solution.results[outlet_ph] < r.solution.results[inlet_ph]);
   CHECK(r.solution.warnings.empty());
@@ -204,11 +204,11 @@ TEST_CASE("heater: a pre-mixed HCl + NaOH feed is the neutralised NaCl solution 
   // components are written.
   CHECK(m.solution.results[duty] == Approx(s.solution.results[duty]).epsilon(1e-9));
   CHECK(m.solution.results[outlet_ph] == Approx(s.solution.results[outlet_ph]).margin(1e-9));
-  // Strong acid + strong base at exact equivalence, 25 °C: pH 7.00 ± 0.01 (REFERENCE-VALUES.md,
-  // worked examples, common practice).
+  // Strong acid + strong base at exact equivalence, 25 °C: pH 7.00 ± 0.01 (worked example, derived
+  // from the ion product, bandura-lvov-2006; common practice).
   CHECK(m.solution.results[inlet_ph] == Approx(7.00).margin(0.01));
   // The feed is at equilibrium already, so the heat of neutralisation (55.84 kJ/mol × 0.1 mol/s =
-  // 5.6 kW, NBS 1982 via REFERENCE-VALUES.md, 13 % of the duty) is not in the duty: what is left is
+  // 5.6 kW, nbs-1982, derived, from memory, 13 % of the duty) is not in the duty: what is left is
   // the sensible heat of a dilute salt solution, within 1 % of that of its water (IAPWS-95 through
   // python3-iapws; 0.1 mol/kg NaCl lowers c_p per kg of water by about 0.2 %, from memory).
   const double iapws = iapws_enthalpy_rise(298.15, 308.15) * 1e3 * (1.0 + 0.1 / mol_per_kg_water);
@@ -230,7 +230,7 @@ TEST_CASE("heater: degassing an acid carbonate liquor puts CO2 and vapour in the
   flow(feed, slate, PFU_AQUEOUS_ROW, "H2O") = mol_per_kg_water;
   flow(feed, slate, PFU_AQUEOUS_ROW, "HCl") = 0.2;
   // Below CO2's solubility under 1 atm of CO2 at 25 °C (K_H 0.0340 mol/(kg atm), Plummer & Busenberg
-  // 1982 via REFERENCE-VALUES.md), so the feed holds it all; at 82 °C it does not.
+  // 1982, plummer-busenberg-1982), so the feed holds it all; at 82 °C it does not.
   flow(feed, slate, PFU_AQUEOUS_ROW, "CO2") = 0.02;
   auto unit = create_heater({{"outlet_temperature", 355.0}}, slate);
   const Run r = run(unit, feed);

@@ -185,7 +185,7 @@ TEST_CASE("neutraliser: NaOH dosed to pH 7 on HCl equals the acid to 0.1 %", "[n
   const host::StreamState reagent = solution(hcl_naoh, 1.0, {{"NaOH", 0.1}});
   const Dose d = run(at_25c({{"mode", std::string("target_ph")}, {"target_ph", 7.0}}), hcl_naoh, feed, reagent);
   const double naoh = d.scale() * 0.1;
-  // Stoichiometry (REFERENCE-VALUES.md, strong acid + strong base at equivalence, pH = pKw/2 = 6.997):
+  // Stoichiometry (worked example, derived from the ion product, bandura-lvov-2006: at equivalence pH = pKw/2 = 6.997):
   // at pH 7.000 the excess base is below 1e-6 of the acid.
   CHECK(naoh == Approx(0.01).epsilon(1e-3));
   CHECK(d.solution.results[outlet_ph] == Approx(7.0).margin(1e-8));
@@ -201,7 +201,7 @@ TEST_CASE("neutraliser: NaOH dosed to pH 7 on HCl equals the acid to 0.1 %", "[n
 
 TEST_CASE("neutraliser: heat of neutralisation of HCl by NaOH is -55.84 kJ/mol", "[neutraliser]") {
   // 0.01 mol/s each, dilute: the duty to hold 25 °C is the heat of H+ + OH- -> H2O(l), NBS 1982
-  // (nbs-1982; REFERENCE-VALUES.md, derived check, ±0.3 kJ/mol), plus dilution heats far below it.
+  // (nbs-1982, from memory; derived, −285.830 + 229.994, ±0.3 kJ/mol), plus dilution heats far below it.
   const host::StreamState feed = solution(hcl_naoh, 1.0, {{"HCl", 0.01}});
   const host::StreamState reagent = solution(hcl_naoh, 1.0, {{"NaOH", 0.01}});
   const Dose d = run(at_25c({}), hcl_naoh, feed, reagent);
@@ -223,7 +223,7 @@ TEST_CASE("neutraliser: acetic acid half-neutralised gives pKa plus the Davies s
   const host::StreamState feed = solution(slate, 0.9, {{"CH3COOH", 0.1}});
   const host::StreamState reagent = solution(slate, 0.1, {{"NaOH", 0.05}});
   const Dose d = run(at_25c({}), slate, feed, reagent);
-  // Henderson–Hasselbalch (REFERENCE-VALUES.md): pH = pKa + log10(γ(A-)/γ(HA)); γ(HA) = 1 in
+  // Henderson–Hasselbalch (derived from the acid's mass-action law): pH = pKa + log10(γ(A-)/γ(HA)); γ(HA) = 1 in
   // Davies, log10 γ(A-) = -A (√I/(1+√I) - 0.3 I) at I ≈ 0.05 mol/kg (Na+ and acetate), A from
   // water's density and permittivity (Robinson & Stokes 1959, through thermo). pKa 4.756, Harned &
   // Ehlers 1933 (harned-ehlers-1933), ±0.005. The buffer's own H+ shifts the ratio by 4e-4 in log.
@@ -279,7 +279,7 @@ TEST_CASE("neutraliser: lime on 2 % sulfuric acid precipitates gypsum to its sol
   const double dissolved = (calcium - gypsum) / water;
   CHECK(dissolved == Approx(15.3e-3).epsilon(0.08));
   CHECK(d.solution.results[dissolved_ca] == Approx(dissolved * 40.078 * 1e3 * thermo::water_density(t25) / 1e3).epsilon(0.01));
-  // Dry solids are the gypsum (172.17 g/mol, python3-periodictable, REFERENCE-VALUES.md).
+  // Dry solids are the gypsum (172.17 g/mol, python3-periodictable, iupac-atomic-weights).
   CHECK(d.solution.results[dry_solids_flow] == Approx(gypsum * 0.1721712).epsilon(1e-6));
   CHECK(d.solution.results[sludge_flow] == Approx(d.solution.results[dry_solids_flow] / 0.02).epsilon(1e-12));
   CHECK(warned(d.solution, "solids precipitate"));
@@ -509,8 +509,8 @@ TEST_CASE("neutraliser: the titration curve of HCl by NaOH as a series", "[neutr
   CHECK(curve.x[200] == Approx(2.0 * equivalence).epsilon(1e-15));
   CHECK(curve.y[0] == Approx(d.solution.results[feed_ph]).margin(1e-9));  // the feed is at 25 °C too
   for (std::size_t i = 1; i < curve.x.size(); ++i) CHECK(curve.y[i] > curve.y[i - 1]);
-  // Strong acid + strong base at exact equivalence: pH = pKw/2 (REFERENCE-VALUES.md worked example,
-  // pKw 13.9945 at 25 °C from IAPWS R11-07 through python3-iapws), ±0.01.
+  // Strong acid + strong base at exact equivalence: pH = pKw/2 (worked example, derived from the ion product,
+  // pKw 13.9945 at 25 °C from IAPWS R11-07 (bandura-lvov-2006) through python3-iapws), ±0.01.
   CHECK(curve.x[100] == Approx(equivalence).epsilon(1e-14));
   CHECK(curve.y[100] == Approx(13.9945 / 2.0).margin(0.01));
   // At 1.5 times equivalence 0.005 mol OH- is left in 1.15 kg of water with 0.015 Na+ and 0.01 Cl-:

@@ -47,13 +47,13 @@ TEST_CASE("scrubber: SO2 into excess caustic on one stage, against a hand calcul
   //   Davies (1962), A = 0.5100 at 25 °C (Robinson & Stokes 1959; from memory):
   //   log10 γ1 = −0.5100 (√0.101 / (1 + √0.101) − 0.3 × 0.101) = −0.5100 × (0.24115 − 0.0303) = −0.1075;
   //   pH = pKw + log10(γ1 m(OH^-)) = 13.9945 + log10(0.7807 × 0.098) = 13.9945 − 1.1167 = 12.878
-  //   (pKw 13.9945 at 25 °C, IAPWS R11-07 through python3-iapws, REFERENCE-VALUES.md).
+  //   (pKw 13.9945 at 25 °C, IAPWS R11-07 through python3-iapws, bandura-lvov-2006).
   const host::Slate slate{{"H2O", "N2", "SO2", "NaOH"}, {}};
   auto unit = scrubber_module().create("scrubber", std::vector<ParameterValue>{{"stages", 1.0}}, slate);
   host::StreamState gas = stream(slate, 298.15, atmosphere);
   flow(gas, slate, PFU_GAS_ROW, "N2") = 1.0;
   flow(gas, slate, PFU_GAS_ROW, "SO2") = 1e-3;
-  const double y_water = 3169.9 / atmosphere;  // IAPWS-95 at 25 °C, REFERENCE-VALUES.md
+  const double y_water = 3169.9 / atmosphere;  // IAPWS-95 at 25 °C through python3-iapws (iapws-95)
   flow(gas, slate, PFU_GAS_ROW, "H2O") = y_water / (1.0 - y_water) * 1.001;
   host::StreamState liquor = stream(slate, 298.15, atmosphere);
   flow(liquor, slate, PFU_AQUEOUS_ROW, "H2O") = mol_per_kg_water;

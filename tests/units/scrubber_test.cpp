@@ -234,3 +234,29 @@ TEST_CASE("scrubber: a column started from its previous answer finds the cold co
   CHECK(again.liquor_out.temperature == Approx(fresh.liquor_out.temperature).margin(1e-6));
   CHECK(result(warm, again, "outlet_hcl_ppmv") == Approx(result(cold, fresh, "outlet_hcl_ppmv")).epsilon(1e-7));
 }
+
+TEST_CASE("scrubber: stages_for_limit is the fewest stages whose own cold column meets the limit", "[scrubber]") {
+  // The search solves other stage counts from the nearest column it has solved (docs/units.md,
+  // "Stages for a limit"); its answer must be the N at which a fresh instance of N stages, solved
+  // from its cold start, meets the limit and one of N − 1 stages does not. Limits met by fewer
+  // stages than the column has, and by more.
+  const auto cold_concentration = [](double stages) {
+    auto unit = scrubber_module().create("scrubber", std::vector<ParameterValue>{{"stages", stages}, {"efficiency", 0.7}}, caustic_slate);
+    return result(unit, run(unit, vent_gas(1e-3), caustic(1.0, 0.05)), "outlet_hcl_concentration");
+  };
+  for (const double limit : {200e-6, 10e-6, 1e-9}) {  // kg per normal m³: 200 and 10 mg/m³, 1 µg/m³
+    CAPTURE(limit);
+    auto unit = scrubber_module().create(
+        "scrubber",
+        std::vector<ParameterValue>{{"stages", 6.0}, {"efficiency", 0.7}, {"limit_gas", std::string("hcl")}, {"emission_limit", limit}},
+        caustic_slate);
+    const Column column = run(unit, vent_gas(1e-3), caustic(1.0, 0.05));
+    const double fewest = result(unit, column, "stages_for_limit");
+    REQUIRE(fewest >= 1.0);
+    CHECK(cold_concentration(fewest) <= limit);
+    if (fewest > 1.0) CHECK(cold_concentration(fewest - 1.0) > limit);
+    // The reported column is still the six-stage one, its profiles its own.
+    CHECK(series(unit, column, "stage_ph").y.size() == 6);
+    CHECK(result(unit, column, "outlet_hcl_concentration") == Approx(cold_concentration(6.0)).epsilon(1e-7));
+  }
+}

@@ -11,9 +11,9 @@ namespace protonflow::thermo::detail {
 namespace {
 
 constexpr double molar_mass = 0.03646094;        // kg/mol, python3-periodictable (iupac-atomic-weights)
-constexpr double formation_enthalpy = -92307.0;  // ΔfH° HCl(g), J/mol: nbs-1982 (REFERENCE-VALUES.md)
+constexpr double formation_enthalpy = -92307.0;  // ΔfH° HCl(g), J/mol: nbs-1982 (from memory)
 constexpr double heat_capacity_gas = 29.12;      // Cp° HCl(g), J/(mol K): nbs-1982 (from memory)
-// HCl(g) → H^+ + Cl^- at infinite dilution, J/mol: nbs-1982, −167.159 + 92.307 (REFERENCE-VALUES.md).
+// HCl(g) → H^+ + Cl^- at infinite dilution, J/mol: nbs-1982, −167.159 + 92.307 (derived; from memory).
 constexpr double solution_enthalpy_at_infinite_dilution = -74852.0;
 // γ±² m(H^+) m(Cl^-) / p(HCl) at 25 °C, mol² kg⁻² atm⁻¹: brimblecombe-clegg-1988 (from memory), the
 // value clegg-brimblecombe-1988-hcl (read) finds their measured HCl pressures over concentrated
@@ -43,7 +43,7 @@ SmoothTable heat_of_solution_table() {
 }
 
 // Mean activity coefficients at 25 °C: robinson-stokes-1959, appendix 8.10 (from memory; the 1 and
-// 3 mol/kg values are those of REFERENCE-VALUES.md). The osmotic coefficients they imply by
+// 3 mol/kg values, 0.809 and 1.316, are also rows of tests/reference). The osmotic coefficients they imply by
 // Gibbs–Duhem, 1.038 at 1 mol/kg and 1.347 at 3 mol/kg, match the tabulated 1.039 and 1.348; from 1 to
 // 15 mol/kg they lie within 1.6 % of the emf study zhao-lei-1986 (read; validation.md).
 const UniUnivalentIsotherm& isotherm() {
@@ -71,7 +71,7 @@ SmoothTable heat_capacity_temperature_slope_table() {
   return {{0.0, 0.1683, 0.2886, 0.3360, 0.4143}, {0.0, 4.626, 4.827, 4.789, 4.520}};
 }
 
-// Density at 20 °C, kg/m³: crc-concentrative-properties (read, REFERENCE-VALUES.md) at 10, 20, 30 and 36 wt %;
+// Density at 20 °C, kg/m³: crc-concentrative-properties (read) at 10, 20, 30 and 36 wt %;
 // wikipedia-hydrochloric-acid (read) at 32, 34 and 38 wt %; pure water from IAPWS-95.
 SmoothTable density_table() {
   return {{0.0, 0.10, 0.20, 0.30, 0.32, 0.34, 0.36, 0.38},

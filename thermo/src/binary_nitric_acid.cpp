@@ -41,7 +41,7 @@ SmoothTable heat_of_solution_table() {
 // memory). Beyond 3 mol/kg no values were read (the azeotrope lies at 34 mol/kg). There ln γ±
 // leaves the table with its own slope (0.144 kg/mol at 3 mol/kg) and bends smoothly towards a final
 // slope over a molality scale (UniUnivalentIsotherm::Continuation): two parameters, fitted so that
-// the maximum-boiling azeotrope at 1 atm lies at 68.0 wt % and 120.5 °C (REFERENCE-VALUES.md, read;
+// the maximum-boiling azeotrope at 1 atm lies at 68.0 wt % and 120.5 °C (wikipedia-nitric-acid, read;
 // the 25 °C isotherm carried there with Parker's heats). Fitted, not published: the azeotrope is
 // then a calibration, not a check (docs/concentrated-acids.md). Water and acid activities still come
 // from the one ln γ± curve, so Gibbs–Duhem holds whatever the parameters.

@@ -11,7 +11,7 @@ namespace protonflow::thermo::detail {
 namespace {
 
 constexpr double molar_mass = 0.03999711;  // kg/mol, python3-periodictable (iupac-atomic-weights)
-// NaOH(s) → Na^+ + OH^- at infinite dilution, J/mol: nbs-1982 (REFERENCE-VALUES.md).
+// NaOH(s) → Na^+ + OH^- at infinite dilution, J/mol: nbs-1982, derived from the ΔfH° of NaOH(s), Na^+ and OH^- (from memory).
 constexpr double solution_enthalpy_at_infinite_dilution = -44510.0;
 
 double mole_fraction(double w) { return (w / molar_mass) / (w / molar_mass + (1.0 - w) / constants::water_molar_mass); }
@@ -58,7 +58,7 @@ BinaryData make_data() {
   const SmoothTable ln_water_activity = column(&Isotherm::water_activity, 1.0, true);
   return BinaryData{
       {"NaOH", molar_mass, "s", {0.0, 0.50, 273.15, 473.15}},
-      -425609.0,                                 // ΔfH° NaOH(s), J/mol: nbs-1982 (REFERENCE-VALUES.md)
+      -425609.0,                                 // ΔfH° NaOH(s), J/mol: nbs-1982 (from memory)
       59.54,                                     // Cp° NaOH(s), J/(mol K): nbs-1982 (from memory)
       std::numeric_limits<double>::quiet_NaN(),  // NaOH is not volatile
       std::numeric_limits<double>::quiet_NaN(),

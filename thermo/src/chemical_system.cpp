@@ -145,6 +145,10 @@ ChemicalSystem::ChemicalSystem(const Database& database, std::vector<std::string
     p.stoichiometry.assign(basis_count_, 0.0);
     spread_reaction(s, p.stoichiometry, p.water_coefficient);
     p.log_k = s.log_k;
+    // A solid's solubility product fitted with the Pitzer parameters (mirabilite, thenardite) replaces the
+    // species data's under that model; its ΔrH° and ΔrCp° are the data's, so the solid's H° stays the data's.
+    if (options_.activity == ActivityModelKind::pitzer)
+      if (const auto fitted = pitzer_log_k(s)) p.log_k = *fitted;
     const detail::StandardEnthalpy h = detail::standard_enthalpy(database, s);
     p.reference_enthalpy = h.at_reference;
     p.heat_capacity = h.heat_capacity;

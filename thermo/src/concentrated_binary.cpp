@@ -29,7 +29,7 @@ constexpr double water_molar_mass = constants::water_molar_mass;
 constexpr double infinity = std::numeric_limits<double>::infinity();
 constexpr double density_reference_temperature = 293.15;  // the density tables are at 20 °C
 
-// NBS convention (docs/energy.md): ΔfH° of H2O(l) and H2O(g), J/mol (nbs-1982, REFERENCE-VALUES.md),
+// NBS convention (docs/energy.md): ΔfH° of H2O(l) and H2O(g), J/mol (nbs-1982, from memory),
 // and Cp° of H2O(g), J/(mol K) (nbs-1982, from memory).
 constexpr double water_formation_enthalpy = -285830.0;
 constexpr double steam_formation_enthalpy = -241818.0;

@@ -15,7 +15,13 @@
 
 namespace protonflow::thermo {
 
+double moller_temperature_function(const std::array<double, 8>& a, double t) noexcept {
+  return a[0] + a[1] * t + a[2] / t + a[3] * std::log(t) + a[4] / (t - 263.0) + a[5] * t * t + a[6] / (680.0 - t) +
+         a[7] / (t - 227.0);
+}
+
 double PitzerCoefficient::at(double temperature) const noexcept {
+  if (has_function) return value + moller_temperature_function(function_terms, temperature) - function_at_reference;
   const double dt = temperature - reference_temperature;
   return value + dt * (d_dT + dt * (0.5 * d2_dT2 + dt * d3_dT3 / 6.0));
 }
@@ -111,13 +117,36 @@ class ParameterFileReader {
     if (node[key + "_dT3"]) c.d3_dT3 = sourced(node[key + "_dT3"]);
     if (node["reference_temperature"]) c.reference_temperature = sourced(node["reference_temperature"]);
     if (c.reference_temperature <= 0.0) fail(node["reference_temperature"], "the reference temperature is in kelvin, above 0");
+    if (const YAML::Node function = node[key + "_function"]) read_function(function, key, c);
     return c;
+  }
+
+  // {terms: [a1, ..., a8], source: key}: the eight terms of Møller's (1988) eq. 13, carried from the
+  // parameter's value at the reference temperature (docs/activity.md).
+  void read_function(const YAML::Node& node, const std::string& key, PitzerCoefficient& c) const {
+    if (!node.IsMap() || !node["terms"] || !node["source"])
+      fail(node, fmt::format("'{}_function' needs 'terms' (eight numbers, Møller 1988 eq. 13) and 'source'", key));
+    check_keys(node, {"terms", "source", "note"});
+    if (c.d_dT != 0.0 || c.d2_dT2 != 0.0 || c.d3_dT3 != 0.0)
+      fail(node, fmt::format("give '{}' either derivatives or a function of temperature, not both", key));
+    const YAML::Node terms = node["terms"];
+    if (!terms.IsSequence() || terms.size() != c.function_terms.size())
+      fail(terms, "'terms' is a list of eight numbers: a1 + a2 T + a3/T + a4 ln T + a5/(T - 263) + a6 T^2 + a7/(680 - T) + a8/(T - 227)");
+    for (std::size_t t = 0; t < c.function_terms.size(); ++t) {
+      try {
+        c.function_terms[t] = terms[t].as<double>();
+      } catch (const YAML::Exception&) {
+        fail(terms[t], "the term is not a number");
+      }
+    }
+    c.has_function = true;
+    c.function_at_reference = moller_temperature_function(c.function_terms, c.reference_temperature);
   }
 
   static std::set<std::string> with_derivatives(std::initializer_list<const char*> keys) {
     std::set<std::string> all;
     for (const std::string key : keys)
-      for (const char* suffix : {"", "_dT", "_dT2", "_dT3"}) all.insert(key + suffix);
+      for (const char* suffix : {"", "_dT", "_dT2", "_dT3", "_function"}) all.insert(key + suffix);
     return all;
   }
 
@@ -136,6 +165,8 @@ class ParameterFileReader {
       const double scale = 2.0 * std::sqrt(static_cast<double>(charge_magnitude(names[0]) * charge_magnitude(names[1])));
       b.c_phi = coefficient(node, "c0");
       b.c_phi.value *= scale, b.c_phi.d_dT *= scale, b.c_phi.d2_dT2 *= scale, b.c_phi.d3_dT3 *= scale;
+      for (double& term : b.c_phi.function_terms) term *= scale;
+      b.c_phi.function_at_reference *= scale;
     }
     b.c1 = coefficient(node, "c1");
     if (node["omega"]) b.omega = sourced(node["omega"]);
@@ -145,6 +176,17 @@ class ParameterFileReader {
     if (node["maximum_temperature"]) b.maximum_temperature = sourced(node["maximum_temperature"]);
     if (!(b.minimum_temperature < b.maximum_temperature))
       fail(node, "the pair's minimum_temperature must lie below its maximum_temperature");
+    // F(T) has poles at 263 K (a5), 680 K (a7) and 227 K (a8): a pair whose functions use one keeps its range
+    // on the near side of it.
+    for (const PitzerCoefficient* c : {&b.beta0, &b.beta1, &b.beta2, &b.c_phi}) {
+      if (!c->has_function) continue;
+      const auto& a = c->function_terms;
+      const double lowest_pole = a[4] != 0.0 ? 263.0 : a[7] != 0.0 ? 227.0 : 0.0;
+      if (!(b.minimum_temperature > lowest_pole) || (a[6] != 0.0 && !(b.maximum_temperature < 680.0)))
+        fail(node, fmt::format("the pair {}–{} has a function of temperature: give minimum_temperature above {:g} K and "
+                               "maximum_temperature below 680 K (the poles of Møller's eq. 13 that its terms use)",
+                               names[0], names[1], lowest_pole));
+    }
     // α by charge type (Pitzer 1991, ch. 3): α₁ = 2 with no β², except 2:2 salts, α₁ = 1.4 and
     // α₂ = 12; an entry may set its own.
     const bool two_two = charge_magnitude(names[0]) >= 2 && charge_magnitude(names[1]) >= 2;

@@ -54,12 +54,17 @@ class ColumnEquations {
 
   // The first profile: a cheap pass of this many sweeps (column_start.cpp).
   ColumnProfile start_profile(int sweeps);
+  // The same sweeps from a profile of this column at other feeds whose unknowns differ (a
+  // component new to the feeds): its flows where it has them, the cold start's where not.
+  ColumnProfile start_profile_from(const ColumnProfile& previous, int sweeps);
 
   // Name of equation `slot` of a block, for error reports.
   std::string equation_name(std::size_t slot) const;
 
  private:
   void read_stage(const double* x, std::size_t stage);  // x's block into l_, v_, T_
+  void initial_profile();  // the cold start's first profile into l_, v_, T_
+  ColumnProfile sweep(int sweeps);  // the start's sweeps from l_, v_, T_
   void evaluate_stage(std::size_t stage, StageEquilibrium& out);
   void residual_block(std::size_t stage, const StageEquilibrium& above, const StageEquilibrium& here, double* f) const;
   double gas_enthalpy_flow(const double* gas, double temperature) const;

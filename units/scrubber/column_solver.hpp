@@ -5,6 +5,7 @@
 #pragma once
 
 #include <cstddef>
+#include <memory>
 #include <stdexcept>
 #include <string>
 #include <vector>
@@ -57,10 +58,35 @@ class ColumnConvergenceError : public std::runtime_error {
   long iterations_;
 };
 
+// What a column of one stage count keeps from one solve to the next: the LU factors of the last
+// Jacobian of its last solve, with which the next solve from a previous answer first tries chord
+// steps (docs/units.md, "scrubber", "Warm start"). Move-only; empty until a solve fills it.
+class ColumnMemory {
+ public:
+  ColumnMemory();
+  ~ColumnMemory();
+  ColumnMemory(ColumnMemory&&) noexcept;
+  ColumnMemory& operator=(ColumnMemory&&) noexcept;
+  ColumnMemory(const ColumnMemory&) = delete;
+  ColumnMemory& operator=(const ColumnMemory&) = delete;
+  struct Objects;  // the SUNDIALS objects (column_solver.cpp)
+  Objects& objects() { return *objects_; }
+
+ private:
+  std::unique_ptr<Objects> objects_;
+};
+
 // Solves the column: from `previous` (an answer of the same column at other feeds) where it is
-// given and fits, else, or if Newton from it fails, from a cold start (column_start.cpp). Throws
-// ColumnConvergenceError, or std::invalid_argument for feeds or a specification that make no column.
+// given and fits, else, or if Newton from it fails, from a cold start (column_start.cpp). With a
+// memory of the same column's last solve, chord steps on its Jacobian come first from `previous`;
+// the memory then keeps this solve's last Jacobian. Throws ColumnConvergenceError, or
+// std::invalid_argument for feeds or a specification that make no column.
 ColumnProfile solve_column(StageModel& model, const ColumnSpecification& specification, const ColumnFeeds& feeds,
-                           const ColumnProfile* previous = nullptr);
+                           const ColumnProfile* previous = nullptr, ColumnMemory* memory = nullptr);
+
+// A start for a column of `stages` stages from the answer of the same column, at the same feeds,
+// with another stage count (column_resize.cpp): the solved profile aligned at the bottom, cut or
+// extended over its top. Pass it to solve_column as `previous`.
+ColumnProfile profile_for_stages(const ColumnProfile& solved, std::size_t stages);
 
 }  // namespace protonflow::scrubber

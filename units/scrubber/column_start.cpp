@@ -44,13 +44,34 @@ void solve_tridiagonal(const std::vector<double>& a, std::vector<double>& b, con
 }  // namespace
 
 ColumnProfile ColumnEquations::start_profile(int sweeps) {
-  evaluated_ = false;  // the sweeps overwrite the working profile and the stages' equilibria
+  initial_profile();
+  return sweep(sweeps);
+}
+
+ColumnProfile ColumnEquations::start_profile_from(const ColumnProfile& previous, int sweeps) {
+  initial_profile();
+  if (previous.stages == stages_ && previous.liquid.size() == l_.size() && previous.gas.size() == v_.size() &&
+      previous.temperature.size() == stages_) {
+    const double t_low = model_.minimum_temperature() + 0.5;
+    const double t_high = model_.maximum_temperature() - 0.5;
+    for (std::size_t j = 0; j < stages_; ++j) {
+      for (const std::size_t c : liquid_unknowns_)
+        if (previous.liquid[j * liquid_count_ + c] > 0.0) l_[j * liquid_count_ + c] = previous.liquid[j * liquid_count_ + c];
+      for (const std::size_t k : gas_unknowns_)
+        if (previous.gas[j * gas_count_ + k] > 0.0) v_[j * gas_count_ + k] = previous.gas[j * gas_count_ + k];
+      t_[j] = std::clamp(previous.temperature[j], t_low, t_high);
+    }
+  }
+  return sweep(sweeps);
+}
+
+// Every stage at the liquor's temperature, with half of each dissolving gas in the liquid and
+// half in the gas: a start from which the sweeps move by factors, never from nothing.
+void ColumnEquations::initial_profile() {
   const std::size_t n = stages_;
   const double floor = flow_floor * flow_scale_;
   const double t_low = model_.minimum_temperature() + 0.5;
   const double t_high = model_.maximum_temperature() - 0.5;
-  // Every stage at the liquor's temperature, with half of each dissolving gas in the liquid and
-  // half in the gas: a start from which the sweeps move by factors, never from nothing.
   for (std::size_t j = 0; j < n; ++j) {
     for (const std::size_t c : liquid_unknowns_) {
       const std::size_t k = component_gas_[c];
@@ -62,6 +83,14 @@ ColumnProfile ColumnEquations::start_profile(int sweeps) {
     }
     t_[j] = std::clamp(feeds_.liquid_temperature, t_low, t_high);
   }
+}
+
+ColumnProfile ColumnEquations::sweep(int sweeps) {
+  evaluated_ = false;  // the sweeps overwrite the working profile and the stages' equilibria
+  const std::size_t n = stages_;
+  const double floor = flow_floor * flow_scale_;
+  const double t_low = model_.minimum_temperature() + 0.5;
+  const double t_high = model_.maximum_temperature() - 0.5;
   const auto total = [](const double* values, std::size_t count) {
     double sum = 0.0;
     for (std::size_t i = 0; i < count; ++i) sum += values[i];

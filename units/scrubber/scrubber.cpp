@@ -33,6 +33,8 @@ constexpr double normal_pressure = 101325.0;
 constexpr double sump_tolerance = 1e-10;
 constexpr long sump_passes = 200;
 constexpr double wegstein_lowest = -20.0;
+// A Wegstein step below this share of the component's last amounts is its cancellation to round-off.
+constexpr double wegstein_cancellation = 1e-12;
 // The most stages the search for an emission limit tries.
 constexpr std::size_t most_stages_for_limit = 100;
 // A liquor above this pH takes up CO2 as carbonate and wastes reagent on it (common practice: acid-
@@ -145,15 +147,20 @@ Scrubber::Scrubber(const unit::Parameters& parameters, const unit::Slate& slate)
   }
 }
 
-ColumnProfile Scrubber::solve_stages(std::size_t stages, const ColumnSpecification& base, const ColumnFeeds& feeds) {
+ColumnProfile Scrubber::solve_stages(std::size_t stages, const ColumnSpecification& base, const ColumnFeeds& feeds,
+                                     const ColumnProfile* nearby) {
   ColumnSpecification specification = base;
   specification.stages = stages;
   model_->prepare(stages);
   try {
     // Each stage count starts from its own last answer: in a recycle the feeds change little from
-    // one pass to the next (docs/units.md, "Solution").
+    // one pass to the next (docs/units.md, "Solution"). A stage count not solved before starts
+    // from the nearby column's profile, cut or extended to its stages.
     const auto previous = previous_profiles_.find(stages);
-    ColumnProfile profile = solve_column(*model_, specification, feeds, previous == previous_profiles_.end() ? nullptr : &previous->second);
+    std::optional<ColumnProfile> resized;
+    if (previous == previous_profiles_.end() && nearby != nullptr) resized = profile_for_stages(*nearby, stages);
+    const ColumnProfile* start = previous != previous_profiles_.end() ? &previous->second : resized ? &*resized : nullptr;
+    ColumnProfile profile = solve_column(*model_, specification, feeds, start, &column_memories_[stages]);
     previous_profiles_[stages] = profile;
     return profile;
   } catch (const ColumnConvergenceError& error) {
@@ -247,17 +254,23 @@ Scrubber::SumpAnswer Scrubber::solve_with_sump(const ColumnSpecification& specif
       }
       return answer;
     }
-    // The next pass: a bounded Wegstein step per unknown once two passes give its slope.
+    // The next pass: a bounded Wegstein step per unknown, on the slope of its last two passes;
+    // after the first pass, for each component, on the slope plain passes have for what the column
+    // does not take up, R / (R + B) (a component's recirculated share: docs/units.md, "Sump").
     std::vector<double> next = g;
-    if (!x_last.empty()) {
-      for (std::size_t i = 0; i <= count; ++i) {
-        const double dx = x[i] - x_last[i];
-        if (dx == 0.0) continue;
-        const double slope = (g[i] - g_last[i]) / dx;
-        const double q = std::clamp(slope / (slope - 1.0), wegstein_lowest, 0.0);
-        const double step = q * x[i] + (1.0 - q) * g[i];
-        if (step >= 0.0 && std::isfinite(step)) next[i] = step;
-      }
+    for (std::size_t i = 0; i <= count; ++i) {
+      const bool first = x_last.empty();
+      if (first && i == count) continue;  // the temperature: no slope known
+      const double dx = first ? 1.0 : x[i] - x_last[i];
+      if (dx == 0.0) continue;
+      const double slope = first ? recirculation_ / outflow : (g[i] - g_last[i]) / dx;
+      const double q = std::clamp(slope / (slope - 1.0), wegstein_lowest, 0.0);
+      double step = q * x[i] + (1.0 - q) * g[i];
+      // A component that nothing brings in any more (the make-up's calcium when the make-up turns
+      // to plain water) goes as g = a x, whose fixed point is none: the step cancels to round-off
+      // of x, a trace tens of decades down that the engine cannot balance. It is none.
+      if (i < count && step < wegstein_cancellation * std::max(x[i], g[i])) step = 0.0;
+      if (step >= 0.0 && std::isfinite(step)) next[i] = step;
     }
     x_last = x;
     g_last = g;
@@ -273,19 +286,61 @@ Scrubber::SumpAnswer Scrubber::solve_with_sump(const ColumnSpecification& specif
   throw unit::UnitError(PFU_NOT_CONVERGED, "unit 'scrubber': the sump's reagent dose could not be settled");
 }
 
-double Scrubber::dry_concentration(const ColumnProfile& profile, std::size_t gas) const {
+double Scrubber::dry_concentration(const ColumnProfile& profile, std::size_t gas, std::size_t stage) const {
   const std::size_t gas_count = chemistry_.gases.size();
+  const double* flows = profile.gas.data() + stage * gas_count;
   double dry = 0.0;
   for (std::size_t k = 0; k < gas_count; ++k)
-    if (chemistry_.gases[k].component != "H2O") dry += profile.gas[k];
+    if (chemistry_.gases[k].component != "H2O") dry += flows[k];
   const double molar_mass = chemistry_.liquid_system->component_molar_mass(chemistry_.gases[gas].liquid_component);
   const double normal_molar_volume = thermo::constants::gas_constant * normal_temperature / normal_pressure;  // m³/mol
-  const double concentration = profile.gas[gas] / dry * molar_mass / normal_molar_volume;
+  const double concentration = flows[gas] / dry * molar_mass / normal_molar_volume;
   if (std::isnan(reference_oxygen_)) return concentration;
   // To the reference oxygen content: C_ref = C (21 − O_ref) / (21 − O_measured), volume percent of
   // dry gas (eu-ied-2010, Annex VI, from memory).
-  const double oxygen = profile.gas[oxygen_gas_] / dry;
+  const double oxygen = flows[oxygen_gas_] / dry;
   return concentration * (0.21 - reference_oxygen_) / (0.21 - oxygen);
+}
+
+// The dry concentration c(N) of the limit gas leaving an N-stage column falls with N (docs/units.md,
+// "Stages for a limit"), so the answer is the N with c(N) ≤ limit < c(N − 1). Each trial count is
+// the one the last column solved predicts: the gas leaving its stage N − k from the top stands for
+// the outlet of a column of k stages (the lowest k stages meet the same gas; above them the liquor
+// is close to its feed), and over its top the concentration goes on falling as it fell from its
+// second stage to its top. Each trial starts from the nearest column solved. Three predictions,
+// then bisection, so that a poor prediction costs a few solves at most.
+std::size_t Scrubber::fewest_stages_for_limit(const ColumnProfile& solved, const ColumnSpecification& specification,
+                                              const ColumnFeeds& feeds) {
+  const auto concentration = [&](const ColumnProfile& column, std::size_t stage) { return dry_concentration(column, limit_gas_, stage); };
+  const auto predicted = [&](const ColumnProfile& column, std::size_t first, std::size_t last) {
+    const std::size_t m = column.stages;
+    const double ln_top = std::log(concentration(column, 0));
+    const double fall = m > 1 ? std::min(ln_top - std::log(concentration(column, 1)), 0.0) : 0.0;
+    for (std::size_t k = first; k <= last; ++k) {
+      const double estimate = k <= m ? concentration(column, m - k) : std::exp(ln_top + fall * static_cast<double>(k - m));
+      if (estimate <= emission_limit_) return k;
+    }
+    return last;
+  };
+  std::map<std::size_t, ColumnProfile> columns{{solved.stages, solved}};
+  // c(low) > limit (0: no column tried), c(high) ≤ limit (none: no column found).
+  std::size_t low = 0, high = none;
+  (concentration(solved, 0) <= emission_limit_ ? high : low) = solved.stages;
+  const ColumnProfile* last = &columns.begin()->second;
+  for (int trial_count = 0; high == none ? low < most_stages_for_limit : high - low > 1; ++trial_count) {
+    const std::size_t top = high == none ? most_stages_for_limit : high - 1;
+    const std::size_t bisected = high == none ? most_stages_for_limit : (low + high) / 2;
+    const std::size_t trial = trial_count < 3 ? predicted(*last, low + 1, top) : bisected;
+    const ColumnProfile* nearest = nullptr;
+    for (const auto& [stages, column] : columns)
+      if (nearest == nullptr || (stages > trial ? stages - trial : trial - stages) <
+                                    (nearest->stages > trial ? nearest->stages - trial : trial - nearest->stages))
+        nearest = &column;
+    const ColumnProfile& column = columns.emplace(trial, solve_stages(trial, specification, feeds, nearest)).first->second;
+    (concentration(column, 0) <= emission_limit_ ? high : low) = trial;
+    last = &column;
+  }
+  return high;
 }
 
 void Scrubber::solve(std::span<const unit::InletState> inlets, std::span<unit::OutletState> outlets, unit::Results& results,
@@ -384,8 +439,13 @@ void Scrubber::solve(std::span<const unit::InletState> inlets, std::span<unit::O
   double gas_out_total = 0.0;
   for (std::size_t k = 0; k < gas_count; ++k) gas_out_total += profile.gas[k];
   const thermo::ChemicalSystem& system = *chemistry_.liquid_system;
-  const thermo::Speciation& spent = model_->state(n - 1);
-  const thermo::Speciation& fed = model_->state(n);
+  // The stages' liquids as solved, kept: the search for the stages an emission limit needs solves
+  // other columns on the same stage model.
+  std::vector<thermo::Speciation> states;
+  states.reserve(n + 1);
+  for (std::size_t j = 0; j <= n; ++j) states.push_back(model_->state(j));
+  const thermo::Speciation& spent = states[n - 1];
+  const thermo::Speciation& fed = states[n];
   double reagent = 0.0, reagent_to_co2 = 0.0;
   const double bleed_share = sump ? units::mass_flow(system, sump->bleed) / units::mass_flow(system, sump->mix.totals) : 0.0;
   for (std::size_t t = 0; t < trade_gases.size(); ++t) {
@@ -454,38 +514,23 @@ void Scrubber::solve(std::span<const unit::InletState> inlets, std::span<unit::O
   if (limit_gas_ != none) {
     const double reached = dry_concentration(profile, limit_gas_);
     const std::string gas_name = chemistry_.gases[limit_gas_].component;
-    // Fewest stages by bisection: removal grows with the stage count (docs/units.md).
-    std::size_t low = 0, high = none;
-    if (reached <= emission_limit_) {
-      high = n;
-    } else {
-      low = n;
-      const ColumnProfile most = solve_stages(most_stages_for_limit, specification, feeds);
-      if (dry_concentration(most, limit_gas_) <= emission_limit_) high = most_stages_for_limit;
-    }
-    while (high != none && high - low > 1) {
-      const std::size_t middle = (low + high) / 2;
-      if (dry_concentration(solve_stages(middle, specification, feeds), limit_gas_) <= emission_limit_) high = middle;
-      else low = middle;
-    }
-    if (high != none) stages_for_limit = static_cast<double>(high);
+    const std::size_t fewest = fewest_stages_for_limit(profile, specification, feeds);
+    if (fewest != none) stages_for_limit = static_cast<double>(fewest);
     if (reached > emission_limit_) {
       warnings.add(prefix + "the emission limit for " + gas_name + " is NOT met: " + number_text(reached * 1e6, 4) +
                    " mg per normal m3 of dry gas against " + number_text(emission_limit_ * 1e6, 4) + " mg/m3; " +
-                   (high != none ? number_text(stages_for_limit, 3) + " stages would meet it at these flows"
-                                 : std::string("no column of up to 100 stages meets it with this liquor: change the liquor")));
+                   (fewest != none ? number_text(stages_for_limit, 3) + " stages would meet it at these flows"
+                                   : std::string("no column of up to 100 stages meets it with this liquor: change the liquor")));
     }
-    // Stage profiles are re-solved for other stage counts: the reported state is this column's.
-    (void)solve_stages(n, specification, feeds);
   }
   results.set("stages_for_limit", stages_for_limit);
 
-  // Stage profiles from the column as solved (the search for the limit re-solved it last).
+  // Stage profiles from the column as solved.
   unit::Series& temperature_profile = results.series("stage_temperature");
   unit::Series& ph_profile = results.series("stage_ph");
   for (std::size_t j = 0; j < n; ++j) {
     temperature_profile.add(double(j + 1), profile.temperature[j]);
-    ph_profile.add(double(j + 1), model_->state(j).ph);
+    ph_profile.add(double(j + 1), states[j].ph);
   }
   for (std::size_t k = 0; k < gas_count; ++k) {
     const ColumnGas& gas = chemistry_.gases[k];
@@ -501,14 +546,14 @@ void Scrubber::solve(std::span<const unit::InletState> inlets, std::span<unit::O
     if (trade == none) continue;
     unit::Series& in_liquid = results.series("stage_liquid_" + name);
     for (std::size_t j = 0; j < n; ++j)
-      in_liquid.add(double(j + 1), profile.liquid[j * liquid_count + gas.liquid_component] / model_->state(j).water_mass);
+      in_liquid.add(double(j + 1), profile.liquid[j * liquid_count + gas.liquid_component] / states[j].water_mass);
   }
 
   double highest_ph = 0.0;
   double highest_index = -std::numeric_limits<double>::infinity();
   std::string scaling_solid;
   for (std::size_t j = 0; j < n; ++j) {
-    const thermo::Speciation& state = model_->state(j);
+    const thermo::Speciation& state = states[j];
     highest_ph = std::max(highest_ph, state.ph);
     for (std::size_t s = 0; s < state.saturation_index.size(); ++s) {
       if (state.saturation_index[s] > highest_index) {

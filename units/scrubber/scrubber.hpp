@@ -142,8 +142,16 @@ class Scrubber {
              unit::Warnings& warnings);
 
  private:
-  ColumnProfile solve_stages(std::size_t stages, const ColumnSpecification& base, const ColumnFeeds& feeds);
-  double dry_concentration(const ColumnProfile& profile, std::size_t gas) const;  // kg per normal m³, top stage
+  // The column of `stages` stages at these feeds: from its own last answer where there is one, else
+  // from `nearby` (a column of another stage count at the same feeds) where given, else cold.
+  ColumnProfile solve_stages(std::size_t stages, const ColumnSpecification& base, const ColumnFeeds& feeds,
+                             const ColumnProfile* nearby = nullptr);
+  // kg per normal m³ of dry gas of `gas` leaving stage `stage` (0: the top, the outlet).
+  double dry_concentration(const ColumnProfile& profile, std::size_t gas, std::size_t stage = 0) const;
+  // The fewest stages, at most most_stages_for_limit, at which the limit gas meets the emission
+  // limit at these feeds, given the answer of `stages`-stage column; none if no column does.
+  std::size_t fewest_stages_for_limit(const ColumnProfile& solved, const ColumnSpecification& specification,
+                                      const ColumnFeeds& feeds);
   // Column and sump to the steady recirculation (docs/units.md, "scrubber", "Sump"): the column's
   // liquor feed, the sump's mix and the bleed (mol/s per liquid component) at the answer.
   struct SumpAnswer {
@@ -171,6 +179,7 @@ class Scrubber {
   std::unique_ptr<ChemistryStageModel> model_;
   std::unique_ptr<Sump> sump_;      // with recirculation only
   std::map<std::size_t, ColumnProfile> previous_profiles_;  // the last answer at each stage count solved
+  std::map<std::size_t, ColumnMemory> column_memories_;     // and the last Jacobian's LU factors there
   std::vector<double> last_recirculation_;  // the last steady recirculated liquor (mol/kg per component) and its T (K)
 };
 

@@ -17,6 +17,7 @@
 #include <protonflow/units/titration.hpp>
 
 #include <limits>
+#include <optional>
 #include <span>
 #include <stdexcept>
 #include <vector>
@@ -90,6 +91,9 @@ class Sump {
   // The enthalpy (W) of totals at their equilibrium at T, P, kept in inflow.
   double enthalpy_of(InflowEnthalpy& inflow, std::span<const double> totals, double temperature, double pressure);
   double temperature_at(double enthalpy, double pressure, double guess);
+  // The dose that holds the setpoint by secant steps from the last dose, the first with the last
+  // slope of pH against the dose; nothing where they do not meet the setpoint in a few steps.
+  std::optional<double> dose_from_last(double setpoint, double temperature, double pressure, double most_ratio);
 
   const thermo::ChemicalSystem* system_;
   std::size_t water_index_;           // index of H2O among the components
@@ -104,6 +108,7 @@ class Sump {
   std::vector<double> water_flow_;    // that fresh water alone
   SumpMix mix_;
   double last_ratio_ = 0.0;           // hint for the next dose search
+  double last_slope_ = 0.0;           // d(pH)/d(ratio) at the last dose, where known (0: not known)
 };
 
 }  // namespace protonflow::scrubber

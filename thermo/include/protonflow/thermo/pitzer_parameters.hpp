@@ -2,6 +2,7 @@
 // (format: docs/activity.md, "Pitzer parameter file").
 #pragma once
 
+#include <array>
 #include <filesystem>
 #include <string>
 #include <string_view>
@@ -14,15 +15,23 @@ namespace protonflow::thermo {
 
 // A parameter as a function of temperature: the Taylor form of Silvester & Pitzer (1977) about
 // T_r = 298.15 K, P(T) = P + (∂P/∂T)(T − T_r) + ½ (∂²P/∂T²)(T − T_r)², with the cubic term and the
-// other reference temperature of Clegg, Rard & Pitzer (1994, eq. 24: T_r = 328.15 K).
+// other reference temperature of Clegg, Rard & Pitzer (1994, eq. 24: T_r = 328.15 K); or a published
+// function of T in the form of Møller (1988, eq. 13), carried from the value at T_r:
+// P(T) = P + F(T) − F(T_r), F(T) = a1 + a2 T + a3/T + a4 ln T + a5/(T − 263) + a6 T² + a7/(680 − T) + a8/(T − 227).
 struct PitzerCoefficient {
   double value = 0.0;
   double d_dT = 0.0;    // K⁻¹
   double d2_dT2 = 0.0;  // K⁻²
   double d3_dT3 = 0.0;  // K⁻³
   double reference_temperature = 298.15;  // K
+  bool has_function = false;
+  std::array<double, 8> function_terms{};  // a1..a8 of F(T), T in K
+  double function_at_reference = 0.0;      // F(T_r)
   double at(double temperature) const noexcept;
 };
+
+// F(T) of Møller (1988, eq. 13), the form shared by Greenberg & Møller (1989, eq. 3).
+double moller_temperature_function(const std::array<double, 8>& terms, double temperature) noexcept;
 
 // One cation–anion pair: β⁰, β¹, β², Cφ and the α of its charge type, and Archer's (1992) extension
 // of the third virial term, C^T(I) = C⁰ + 4 C¹ h(ω√I), with C⁰ = Cφ/(2√|z_c z_a|).
