@@ -10,6 +10,7 @@
 #include "protonflow/thermo/constants.hpp"
 #include "protonflow/thermo/database.hpp"
 #include "protonflow/thermo/equilibrium_solver.hpp"
+#include "protonflow/thermo/errors.hpp"
 
 using namespace protonflow::thermo;
 
@@ -114,4 +115,35 @@ TEST_CASE("the reduced form and the Schur-complement solve reach the full form's
       }
     }
   }
+}
+
+// 0.1085 mol Ca(OH)2 in 2.65 g of water (41 mol/kg, far beyond the Davies model) with traces of the
+// other components, at 85.7 °C: a reduced Newton step from the cold start reaches a point whose
+// residual is NaN. KINSOL's line search, given a NaN norm, never returns (without the reduced
+// callback's NaN test this solve made 5 million residual calls in 10 s); with it the NaN is a
+// recoverable failure, and the solve ends in the typed error with its residuals (the full form does
+// not solve this input either). The solver then serves the next input as a fresh one.
+TEST_CASE("a reduced-form solve that reaches a NaN residual ends in the typed error and the solver recovers") {
+  const Case& dilute = cases().front();
+  const ChemicalSystem system = system_of(dilute, ActivityModelKind::davies);
+  SolverOptions options;
+  options.form = NewtonForm::reduced;
+  EquilibriumSolver reduced(system, options);
+  const std::vector<double> caustic_paste{0.14722545198488754,     1.6074599944141515e-41, 1.2421707572207412e-84,
+                                          1.0848900107300936e-125, 5.8907204855721807e-298, 1.935406916721951e-202,
+                                          0.10852469714610535};
+  Speciation s;
+  try {
+    reduced.solve(358.8642857142857, 101325.0, caustic_paste, s);
+    FAIL("the solve returned an answer, pH " << s.ph);
+  } catch (const ConvergenceError& error) {
+    CHECK(error.residuals().size() == system.solutes().size() + 1);
+  }
+  EquilibriumSolver full(system);
+  const Speciation expected = solve(full, dilute, dilute.amounts);
+  const Speciation actual = solve(reduced, dilute, dilute.amounts);
+  CHECK_FALSE(actual.warm_started);
+  CHECK(actual.residual_norm <= 1e-12);
+  for (std::size_t i = 0; i < expected.molality.size(); ++i)
+    CHECK(std::abs(actual.molality[i] - expected.molality[i]) <= 1e-9 * expected.molality[i] + 1e-300);
 }

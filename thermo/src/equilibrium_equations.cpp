@@ -20,8 +20,20 @@ void EquilibriumSolver::Impl::evaluate_molalities(const double* x) {
   std::copy(x, x + size, evaluated_at.begin());
   evaluation_valid = true;
   for (std::size_t i = 0; i < n; ++i) molality[i] = active[i] ? std::exp(std::clamp(x[i], lowest_log, highest_log)) : 0.0;
+  basis_amount_current = false;
   water_mass = std::exp(std::clamp(x[n], lowest_log, highest_log));
   activity->evaluate(temperature, pressure, molality, evaluation);
+}
+
+// Σ_i ν_ib m_i over the tableau's non-zero entries, for every basis species at once.
+const double* EquilibriumSolver::Impl::basis_amounts() {
+  double* amount = basis_amount.data();
+  if (basis_amount_current) return amount;
+  std::fill(amount, amount + nb, 0.0);
+  for (std::size_t i = 0; i < n; ++i)
+    for (const Term& t : terms[i]) amount[t.basis] += t.coefficient * molality[i];
+  basis_amount_current = true;
+  return amount;
 }
 
 double EquilibriumSolver::Impl::phase_log_activity(const PhaseSpecies& p, double ln_k_phase) const {
@@ -83,11 +95,7 @@ void EquilibriumSolver::Impl::residual(const double* x, double* f) {
       held += (water ? phase[g].water_coefficient : phase[g].stoichiometry[b]) * phase_scale * x[phase_offset + g];
     return held;
   };
-  // Σ_i ν_ib m_i over the tableau's non-zero entries, for every basis species at once.
-  double* amount = basis_amount.data();
-  std::fill(amount, amount + nb, 0.0);
-  for (std::size_t i = 0; i < n; ++i)
-    for (const Term& t : terms[i]) amount[t.basis] += t.coefficient * molality[i];
+  const double* amount = basis_amounts();
   for (std::size_t b = 1; b < nb; ++b) {
     if (!active[b]) {
       f[b] = x[b] - inactive_log_molality;

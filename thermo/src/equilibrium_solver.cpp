@@ -66,6 +66,7 @@ EquilibriumSolver::Impl::Impl(const ChemicalSystem& chemical_system, SolverOptio
       guess_ln_k(n),
       gradient(n),
       basis_amount(nb),
+      previous_basis_total(nb),
       ln_basis_activity(nb),
       guess_active(n),
       previous_active(n, 0),
@@ -201,6 +202,16 @@ int EquilibriumSolver::Impl::run_newton() {
 // A basis species a present solid or an open gas fixes keeps its start.
 void EquilibriumSolver::Impl::rescale_warm_start(double* x) {
   constexpr double largest_unscaled_ratio = 2.718281828459045;  // e: one unit of ln m
+  // Most warm starts move no total far: where every total is within a factor 2 of the previous
+  // answer's, that answer, whose balances closed to the tolerance, holds each within a factor e,
+  // and nothing is scaled. Only a total that moved further is weighed against what the start holds.
+  constexpr double largest_unweighed_ratio = 2.0;
+  bool moved = false;
+  for (std::size_t b = 1; b < nb; ++b) {
+    const double now = basis_total[b], before = previous_basis_total[b];
+    moved = moved || (now > 0.0 && !(now <= largest_unweighed_ratio * before && largest_unweighed_ratio * now >= before));
+  }
+  if (!moved) return;
   const auto& solids = system->solids();
   const auto& open = system->open_gases();
   const auto& phase = system->phase_gases();
@@ -208,13 +219,12 @@ void EquilibriumSolver::Impl::rescale_warm_start(double* x) {
   // those of the start (the previous answer, evaluated for its results).
   if (!std::equal(x, x + size, evaluated_at.begin())) {
     for (std::size_t i = 0; i < n; ++i) molality[i] = active[i] ? std::exp(std::clamp(x[i], detail::lowest_log, detail::highest_log)) : 0.0;
+    basis_amount_current = false;
     water_mass = std::exp(std::clamp(x[n], detail::lowest_log, detail::highest_log));
+    std::copy(x, x + size, evaluated_at.begin());  // the molalities held are of x; γ is not evaluated
     evaluation_valid = false;
   }
-  double* held = basis_amount.data();
-  std::fill(held, held + nb, 0.0);
-  for (std::size_t i = 0; i < n; ++i)
-    for (const Term& t : terms[i]) held[t.basis] += t.coefficient * molality[i];
+  const double* held = basis_amounts();
   bool any = false;
   for (std::size_t b = 1; b < nb; ++b) {
     shift_by_basis[b] = 0.0;
@@ -259,10 +269,7 @@ void EquilibriumSolver::Impl::set_residual_scales(const double* x, double* scale
   scale[0] = 1.0 / std::max(charge_scale, 1e-300);
   // A mass balance is relative to the larger of its total and what the solution holds now: an open
   // gas brings in what the inputs never had (carbonate into water open to air).
-  double* amount = basis_amount.data();  // Σ_i ν_ib m_i over the tableau's non-zero entries
-  std::fill(amount, amount + nb, 0.0);
-  for (std::size_t i = 0; i < n; ++i)
-    for (const Term& t : terms[i]) amount[t.basis] += t.coefficient * molality[i];
+  const double* amount = basis_amounts();
   for (std::size_t b = 1; b < nb; ++b) {
     if (!active[b]) continue;
     const double dissolved = amount[b] * water_mass;
@@ -518,6 +525,7 @@ void EquilibriumSolver::Impl::solve(double t, double p, std::span<const double> 
         residual_report(), iterations);
   }
   std::copy(x, x + size, previous_u.begin());
+  std::copy(basis_total.begin(), basis_total.end(), previous_basis_total.begin());
   previous_active = active;
   previous_solid_present = solid_present;
   previous_gas_phase_present = gas_phase_present;

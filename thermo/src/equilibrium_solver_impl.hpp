@@ -42,6 +42,9 @@ struct EquilibriumSolver::Impl {
 
   // The system of equations, evaluated at u: residual F(u) and its Jacobian.
   void evaluate_molalities(const double* u);
+  // Σ_i ν_ib m_i of each basis species at the molalities held now, summed once for them: the warm
+  // start's test, the residual scales and the residual at one point share it.
+  const double* basis_amounts();
   void residual(const double* u, double* f);
   void jacobian(const double* u, SUNMatrix jacobian_matrix);
   void jacobian_entries(const double* u, double* data);  // column-major, size × size
@@ -51,8 +54,12 @@ struct EquilibriumSolver::Impl {
   bool solve_secondary(double* x);
   bool reduced_residual(const double* y, double* f);
   bool reduced_jacobian(const double* y, double* data);
+  // A NaN in the reduced F is a recoverable failure, as in the full form's callback below.
   static int reduced_residual_callback(N_Vector y, N_Vector f, void* user_data) {
-    return static_cast<Impl*>(user_data)->reduced_residual(N_VGetArrayPointer(y), N_VGetArrayPointer(f)) ? 0 : 1;
+    auto* self = static_cast<Impl*>(user_data);
+    double* values = N_VGetArrayPointer(f);
+    if (!self->reduced_residual(N_VGetArrayPointer(y), values)) return 1;
+    return has_nan(values, self->reduced_size) ? 1 : 0;
   }
   static int reduced_jacobian_callback(N_Vector y, N_Vector fy, SUNMatrix jacobian_matrix, void* user_data, N_Vector, N_Vector);
   std::size_t full_index(std::size_t reduced_index) const { return reduced_index < nb ? reduced_index : reduced_index + n - nb; }
@@ -68,9 +75,12 @@ struct EquilibriumSolver::Impl {
     auto* self = static_cast<Impl*>(user_data);
     double* values = N_VGetArrayPointer(f);
     self->residual(N_VGetArrayPointer(u), values);
-    for (std::size_t i = 0; i < self->size; ++i)
-      if (std::isnan(values[i])) return 1;
-    return 0;
+    return has_nan(values, self->size) ? 1 : 0;
+  }
+  static bool has_nan(const double* f, std::size_t length) {
+    for (std::size_t i = 0; i < length; ++i)
+      if (std::isnan(f[i])) return true;
+    return false;
   }
   // KINSOL's messages go into the error we throw, never to stderr: a library does not print.
   static void error_callback(int, const char*, const char* function, char* message, void* user_data) {
@@ -141,7 +151,9 @@ struct EquilibriumSolver::Impl {
   std::vector<double> guess_ln_gamma, conditional_ln_k;  // the guess's activity corrections
   std::vector<double> shift_by_basis;  // ln of the fraction of each basis species a precipitation leaves
   std::vector<double> guess_x, guess_totals, guess_stoichiometry, guess_ln_k, previous_u, gradient;
-  std::vector<double> basis_amount;  // Σ_i ν_ib m_i of each basis species, scratch of the residual
+  std::vector<double> basis_amount;  // Σ_i ν_ib m_i of each basis species (basis_amounts())
+  bool basis_amount_current = false;  // whether basis_amount is of the molalities held now
+  std::vector<double> previous_basis_total;  // basis_total of the previous answer, mol
   std::vector<double> ln_basis_activity;  // ln a_b of each basis species, scratch of fill()
   std::vector<char> guess_active, previous_active;
   detail::GuessWorkspace guess_workspace;  // the cold start's work arrays (equilibrium_guess.cpp)
