@@ -1,5 +1,6 @@
 // protonflow: the command-line host. This file only sets up the command line; each subcommand
 // lives in its own file.
+#include <cstdlib>
 #include <exception>
 #include <iostream>
 
@@ -26,6 +27,13 @@ void add_data_dir(CLI::App* command, std::string& data_directory) {
 
 std::filesystem::path data_dir_or_default(const std::string& data_directory) {
   return data_directory.empty() ? protonflow::thermo::default_data_directory() : std::filesystem::path(data_directory);
+}
+
+// The unit modules read their species data from $PROTONFLOW_DATA_DIR (else the build's data), not
+// from the host: a --data-dir given on the command line is set there before any module loads, so
+// the host and every unit of a run compute with the same data.
+void share_data_dir_with_modules(const std::string& data_directory) {
+  if (!data_directory.empty()) ::setenv("PROTONFLOW_DATA_DIR", data_directory.c_str(), 1);
 }
 
 }  // namespace
@@ -88,10 +96,12 @@ int main(int argc, char** argv) {
       return protonflow::host::run_speciate(speciate, std::cout, std::cerr);
     }
     if (run_command->parsed()) {
+      share_data_dir_with_modules(data_directory);
       run.data_directory = data_dir_or_default(data_directory);
       return protonflow::host::run_flowsheet(run, std::cout, std::cerr);
     }
     if (check_command->parsed()) {
+      share_data_dir_with_modules(data_directory);
       check.data_directory = data_dir_or_default(data_directory);
       return protonflow::host::check_flowsheet(check, std::cout, std::cerr);
     }
