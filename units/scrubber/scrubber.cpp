@@ -3,6 +3,7 @@
 #include <protonflow/thermo/constants.hpp>
 #include <protonflow/thermo/database.hpp>
 #include <protonflow/thermo/errors.hpp>
+#include <protonflow/thermo/shared_database.hpp>
 #include <protonflow/units/message_text.hpp>
 #include <protonflow/units/product_warnings.hpp>
 #include <protonflow/units/thermo_failure.hpp>
@@ -11,6 +12,7 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <memory>
 #include <optional>
 #include <string>
 
@@ -44,12 +46,6 @@ constexpr double carbon_dioxide_ph = 10.0;
 // practice: |SI| < 0.5 counts as near equilibrium).
 constexpr double scaling_index = -0.5;
 
-// The species data, read once per module and shared by every instance (read-only after loading).
-const thermo::Database& module_database() {
-  static const thermo::Database database = thermo::load_database(thermo::default_data_directory());
-  return database;
-}
-
 thermo::ActivityModelKind activity_kind(const std::string& name) {
   return name == "b-dot"    ? thermo::ActivityModelKind::b_dot
          : name == "pitzer" ? thermo::ActivityModelKind::pitzer
@@ -63,9 +59,11 @@ std::size_t trade_index(const std::string& formula) {
 }
 
 ColumnChemistry build_chemistry(const unit::Slate& slate, const std::string& activity_model) {
-  const thermo::Database* database = nullptr;
+  // The species data, parsed once per process and shared with the host and every other unit
+  // (shared_database.hpp); the chemical systems keep nothing of it.
+  std::shared_ptr<const thermo::Database> database;
   try {
-    database = &module_database();
+    database = thermo::shared_database(thermo::default_data_directory());
   } catch (const thermo::ThermoError& error) {
     throw unit::UnitError(PFU_INTERNAL_ERROR, std::string("unit 'scrubber': cannot read the species data: ") + error.what());
   }
