@@ -14,7 +14,6 @@ namespace {
 
 // Below 5 K from 25 °C a missing enthalpy of 50 kJ/mol, typical of a hydrolysis step, moves log K by
 // less than 0.15; beyond it the held constant is the larger error (common practice).
-constexpr double reference_temperature = 298.15;  // K
 constexpr double temperature_margin = 5.0;        // K
 // A species holding less than 1 % of its metal changes the dissolved total by less than 1 %.
 constexpr double share_that_matters = 0.01;
@@ -28,7 +27,7 @@ bool held_at_reference_temperature(const TemperatureFunction& function) noexcept
 }
 
 std::vector<std::string> describe_held_constants(const ChemicalSystem& system, const Speciation& state) {
-  if (!(std::abs(state.temperature - reference_temperature) >= temperature_margin)) return {};
+  if (!(std::abs(state.temperature - constants::reference_temperature) >= temperature_margin)) return {};
   const auto& solutes = system.solutes();
   // Dissolved amount of each basis species over every solute it forms (mol/kg); index 0 is H^+.
   std::vector<double> dissolved(solutes.size(), 0.0);
@@ -58,7 +57,7 @@ std::vector<std::string> describe_held_constants(const ChemicalSystem& system, c
   if (held.empty()) return {};
   // What a typical hydrolysis enthalpy would have moved log K by between 25 °C and this temperature.
   const double typical_shift = typical_hydrolysis_enthalpy / (constants::gas_constant * std::log(10.0)) *
-                               std::abs(1.0 / state.temperature - 1.0 / reference_temperature);
+                               std::abs(1.0 / state.temperature - 1.0 / constants::reference_temperature);
   return {fmt::format("at {:.1f} °C the constants of {} are held at their 25 °C values (no published reaction enthalpy "
                       "was found for them; docs/species-data.md): the dissolved amounts and solids they govern do not "
                       "follow the temperature (a reaction enthalpy of 50 kJ/mol, typical of a metal's first hydrolysis "

@@ -5,6 +5,7 @@
 #include <fmt/ranges.h>
 
 #include "protonflow/thermo/activity_pitzer.hpp"
+#include "protonflow/thermo/constants.hpp"
 #include "protonflow/thermo/pitzer_parameters.hpp"
 
 namespace protonflow::thermo {
@@ -42,7 +43,7 @@ std::vector<std::string> describe_pitzer_temperature_range(const ChemicalSystem&
   constexpr double major = 0.1;            // mol/kg: an ion that weighs in a brine's activities and heats
   constexpr double near_reference = 5.0;   // K: within this of 25 °C the 25 °C parameters serve
   const double t = state.temperature;
-  if (system.options().activity != ActivityModelKind::pitzer || std::abs(t - 298.15) <= near_reference) return {};
+  if (system.options().activity != ActivityModelKind::pitzer || std::abs(t - constants::reference_temperature) <= near_reference) return {};
   const auto present = [&](const std::string& name) {
     for (std::size_t i = 0; i < system.solutes().size(); ++i)
       if (system.solutes()[i].name == name) return state.molality[i] >= major;
