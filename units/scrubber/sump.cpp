@@ -4,11 +4,8 @@
 #include <protonflow/unit_module.hpp>
 #include <protonflow/units/message_text.hpp>
 
-#include <boost/math/tools/roots.hpp>
-
 #include <algorithm>
 #include <cmath>
-#include <cstdint>
 #include <optional>
 
 namespace protonflow::scrubber {
@@ -26,16 +23,6 @@ constexpr int most_dose_passes = 30;
 // A kg of fresh water is displaced by the reagent up to this fraction of the last one, so that the
 // largest dose leaves no negative water behind through round-off.
 constexpr double displacement_margin = 1e-12;
-// The dose from the last one: a pH within this of the setpoint is the setpoint (the titration's own
-// stopping rule, units/chemistry/src/titration.cpp), in at most this many secant steps.
-constexpr double ph_match = 1e-9;
-constexpr int most_secant_steps = 6;
-constexpr double narrowest_bracket = 1e-13;
-constexpr std::uintmax_t most_bracket_steps = 100;
-// Secant steps start only within this many pH units of the setpoint.
-constexpr double secant_reach = 1.0;
-// Relative step of the dose that measures the curve's slope where none is known yet.
-constexpr double slope_probe = 1e-6;
 
 }  // namespace
 
@@ -81,60 +68,6 @@ double Sump::temperature_at(double enthalpy, double pressure, double guess) {
                                                          {guess, heat_capacity_per_mass_ * mass});
   if (heat_capacity > 0.0 && std::isfinite(heat_capacity) && mass > 0.0) heat_capacity_per_mass_ = heat_capacity / mass;
   return mix_.state.temperature;
-}
-
-// Between the column-and-sump passes of a solve, and between the passes of dose and temperature,
-// the dose moves by a small fraction of itself, on a titration curve that is steep (the plant's
-// unbuffered sump liquor: 0.3 pH per 0.01 % of dose at its setpoint) but smooth there: a secant
-// step from the last dose, with the slope the last dose was found on, and TOMS 748
-// [alefeld-potra-shi-1995] once two steps straddle the setpoint, meet it in two to four equilibria
-// where a bracket of ±0.01 % around the last dose takes about seven. Far from the setpoint (more
-// than one pH off, on the steep part of the curve, where a secant step overshoots) or where a
-// step goes against the slope, the bracketing search decides instead.
-std::optional<double> Sump::dose_from_last(double setpoint, double temperature, double pressure, double most_ratio) {
-  if (!(last_ratio_ > 0.0 && last_ratio_ <= most_ratio)) return std::nullopt;
-  double best_ratio = last_ratio_;
-  double best_miss = titration_.ph_at(best_ratio, temperature, pressure) - setpoint;
-  const auto miss = [&](double ratio) {
-    const double g = titration_.ph_at(ratio, temperature, pressure) - setpoint;
-    if (std::abs(g) < std::abs(best_miss)) {
-      best_ratio = ratio;
-      best_miss = g;
-    }
-    return std::abs(g) <= ph_match ? 0.0 : g;
-  };
-  if (std::abs(best_miss) <= ph_match) return best_ratio;
-  if (std::abs(best_miss) > secant_reach) return std::nullopt;
-  double ratio = best_ratio, ratio_miss = best_miss;
-  // No slope yet (the last dose came from a bracket): the first step measures it.
-  const bool known = last_slope_ != 0.0 && std::isfinite(last_slope_);
-  double slope = last_slope_;
-  for (int step = 0; step < most_secant_steps; ++step) {
-    const double next = !known && step == 0 ? ratio * (1.0 + slope_probe) : ratio - ratio_miss / slope;
-    if (!(next > 0.0 && next <= most_ratio)) return std::nullopt;
-    const double next_miss = miss(next);
-    if (next_miss == 0.0) break;
-    const double secant = (next_miss - ratio_miss) / (next - ratio);
-    if (!std::isfinite(secant) || secant == 0.0 || (step > 0 || known ? !(secant * slope > 0.0) : false)) return std::nullopt;
-    if ((next_miss < 0.0) != (ratio_miss < 0.0)) {
-      // The setpoint between the last two doses: TOMS 748 there, to the titration's own stopping
-      // rules (a pH within 1e-9, or a bracket of relative width 1e-13).
-      double low = std::min(ratio, next), high = std::max(ratio, next);
-      const double low_miss = low == ratio ? ratio_miss : next_miss, high_miss = low == ratio ? next_miss : ratio_miss;
-      const auto narrow_enough = [](double a, double b) { return b - a <= narrowest_bracket * std::max(std::abs(a), std::abs(b)); };
-      std::uintmax_t steps = most_bracket_steps;
-      boost::math::tools::toms748_solve(miss, low, high, low_miss, high_miss, narrow_enough, steps);
-      last_slope_ = secant;
-      if (!(std::abs(best_miss) <= ph_match)) return std::nullopt;  // left to the bracketing search, which says why
-      return best_ratio;
-    }
-    ratio = next;
-    ratio_miss = next_miss;
-    slope = secant;
-  }
-  if (!(std::abs(best_miss) <= ph_match)) return std::nullopt;
-  if (slope != 0.0 && std::isfinite(slope)) last_slope_ = slope;
-  return best_ratio;
 }
 
 const SumpMix& Sump::mix(SumpInflow bottoms, SumpInflow make_up, SumpInflow reagent, double fresh_water_temperature,
@@ -190,7 +123,8 @@ const SumpMix& Sump::mix(SumpInflow bottoms, SumpInflow make_up, SumpInflow reag
       // From the last dose (the last pass of the column, or of a recycle) where the setpoint is
       // bracketed near it: reachable and not passed, so the ends of the curve need no solving.
       std::optional<double> near;
-      if (!mix_.setpoint_passed) near = dose_from_last(setpoint, temperature, pressure, most_ratio);
+      if (!mix_.setpoint_passed)
+        near = titration_.find_ratio_by_secant(setpoint, temperature, pressure, most_ratio, last_ratio_, last_slope_);
       if (!near && pass == 0 && last_ratio_ > 0.0)
         near = titration_.find_ratio_near(setpoint, temperature, pressure, most_ratio, "scrubber", last_ratio_);
       if (pass == 0 && !near) {

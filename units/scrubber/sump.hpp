@@ -91,9 +91,6 @@ class Sump {
   // The enthalpy (W) of totals at their equilibrium at T, P, kept in inflow.
   double enthalpy_of(InflowEnthalpy& inflow, std::span<const double> totals, double temperature, double pressure);
   double temperature_at(double enthalpy, double pressure, double guess);
-  // The dose that holds the setpoint by secant steps from the last dose, the first with the last
-  // slope of pH against the dose; nothing where they do not meet the setpoint in a few steps.
-  std::optional<double> dose_from_last(double setpoint, double temperature, double pressure, double most_ratio);
 
   const thermo::ChemicalSystem* system_;
   std::size_t water_index_;           // index of H2O among the components

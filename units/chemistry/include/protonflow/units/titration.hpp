@@ -78,6 +78,14 @@ class Titration {
   // reachable and not already passed at x = 0.
   std::optional<double> find_ratio_near(double target, double temperature, double pressure, double ratio_max,
                                         const std::string& unit_type, double hint);
+  // The same from a hint by secant steps, for a dose that moves by a small fraction of itself between
+  // calls on a steep but smooth curve: the first step with last_slope (dpH/dx where the hint was
+  // found; 0 or not finite: the first step measures it), then TOMS 748 once two steps straddle the
+  // target, to find_ratio's stopping rules. Nothing where the hint is more than one pH off, a step
+  // leaves (0, ratio_max] or goes against the slope, or six steps do not meet the target (then
+  // find_ratio_near or find_ratio decide). last_slope becomes the slope the answer was found on.
+  std::optional<double> find_ratio_by_secant(double target, double temperature, double pressure, double ratio_max,
+                                             double hint, double& last_slope);
 
   long solves() const noexcept { return solves_; }
   void reset_count() noexcept { solves_ = 0; }
