@@ -100,6 +100,16 @@ double Titration::reagent_ph(double temperature, double pressure) {
   return reagent_state_.ph;
 }
 
+double Titration::miss_tracked(double ratio, double target, double temperature, double pressure, double& best_ratio,
+                               double& best_miss) {
+  const double g = ph_at(ratio, temperature, pressure) - target;
+  if (std::abs(g) < std::abs(best_miss)) {
+    best_ratio = ratio;
+    best_miss = g;
+  }
+  return std::abs(g) <= ph_match ? 0.0 : g;
+}
+
 std::optional<double> Titration::find_ratio_near(double target, double temperature, double pressure, double ratio_max,
                                                  const std::string& unit_type, double hint) {
   if (!(hint > 0.0 && hint <= ratio_max)) return std::nullopt;
@@ -142,14 +152,7 @@ std::optional<double> Titration::find_ratio_by_secant(double target, double temp
   if (!(hint > 0.0 && hint <= ratio_max)) return std::nullopt;
   double best_ratio = hint;
   double best_miss = ph_at(best_ratio, temperature, pressure) - target;
-  const auto miss = [&](double ratio) {
-    const double g = ph_at(ratio, temperature, pressure) - target;
-    if (std::abs(g) < std::abs(best_miss)) {
-      best_ratio = ratio;
-      best_miss = g;
-    }
-    return std::abs(g) <= ph_match ? 0.0 : g;
-  };
+  const auto miss = [&](double ratio) { return miss_tracked(ratio, target, temperature, pressure, best_ratio, best_miss); };
   if (std::abs(best_miss) <= ph_match) return best_ratio;
   if (std::abs(best_miss) > secant_reach) return std::nullopt;
   double ratio = best_ratio, ratio_miss = best_miss;
@@ -240,14 +243,7 @@ double Titration::search(double target, double temperature, double pressure, dou
     best_ratio = high;
     best_miss = high_miss;
   }
-  const auto miss = [&](double ratio) {
-    const double g = ph_at(ratio, temperature, pressure) - target;
-    if (std::abs(g) < std::abs(best_miss)) {
-      best_ratio = ratio;
-      best_miss = g;
-    }
-    return std::abs(g) <= ph_match ? 0.0 : g;
-  };
+  const auto miss = [&](double ratio) { return miss_tracked(ratio, target, temperature, pressure, best_ratio, best_miss); };
   const auto narrow_enough = [](double a, double b) { return b - a <= relative_bracket * std::max(std::abs(a), std::abs(b)); };
   std::uintmax_t steps = max_search_steps;
   boost::math::tools::toms748_solve(miss, low, high, low_miss, high_miss, narrow_enough, steps);

@@ -92,6 +92,10 @@ class Titration {
   const thermo::Speciation& state() const noexcept { return state_; }
 
  private:
+  // g(x) = pH(x) − target as the dose searches take it (0 within the stopping rule's 1e-9 pH),
+  // keeping in best_ratio and best_miss the ratio whose pH has come nearest the target.
+  double miss_tracked(double ratio, double target, double temperature, double pressure, double& best_ratio,
+                      double& best_miss);
   double search(double target, double temperature, double pressure, double low, double high, double low_miss,
                 double high_miss, const std::string& unit_type);
 
